@@ -1,0 +1,327 @@
+"""Curves in: parsing the CURVE argument, Weierstrass invariants, changes of variables, models.
+
+A curve is given by Weierstrass coefficients a1, a2, a3, a4, a6 in Q,
+
+    E : y² + a1·xy + a3·y = x³ + a2·x² + a4·x + a6,
+
+with Tate's quantities b2, b4, b6, b8, c4, c6, the discriminant Δ and j = c4³/Δ
+(Silverman, *The Arithmetic of Elliptic Curves*, III.1). A change of variables [u, r, s, t],
+u ≠ 0, means x = u²x' + r, y = u³y' + su²x' + t (Silverman III.1, Table 3.1).
+"""
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from fractions import Fraction
+from functools import cached_property
+from typing import Iterator, Optional
+
+from certify.verifier.curves import b_invariants, c_invariants, change_model, discriminant
+
+MAX_COEFFICIENT_DIGITS = 1000
+"""Largest number of decimal digits accepted in the numerator or denominator of a coefficient."""
+
+MAX_INPUT_LENGTH = 20000
+"""Longest CURVE argument accepted, in characters."""
+
+
+class CurveInputError(ValueError):
+    """The CURVE argument is malformed, singular, not over Q, or over the documented size limits."""
+
+
+Change = tuple  # (u, r, s, t) as Fractions
+
+
+def _rational(token: str) -> Fraction:
+    """Parse one coefficient written as an integer or a fraction p/q, within the size limit."""
+    token = token.strip()
+    match = re.fullmatch(r"([+-]?)(\d+)(?:/(\d+))?", token)
+    if not match:
+        raise CurveInputError(f"not a rational number: {token!r}")
+    sign, numerator, denominator = match.groups()
+    for digits in (numerator, denominator or "1"):
+        if len(digits) > MAX_COEFFICIENT_DIGITS:
+            raise CurveInputError(f"coefficient has {len(digits)} digits; the limit is {MAX_COEFFICIENT_DIGITS}")
+    if denominator is not None and int(denominator) == 0:
+        raise CurveInputError(f"zero denominator in {token!r}")
+    value = Fraction(int(numerator), int(denominator or 1))
+    return -value if sign == "-" else value
+
+
+# --- the Weierstrass-equation syntax: sums of terms c·x^i·y^j on each side of '=' ---
+_TERM = re.compile(r"\s*([+-])?\s*([^+-]+)")
+_FACTOR = re.compile(r"^(?:(\d+(?:/\d+)?)|([xy])(?:\^(\d+))?)$")
+
+
+def _side_terms(side: str) -> dict[tuple[int, int], Fraction]:
+    """Read one side of an equation into {(i, j): coefficient of x^i y^j}."""
+    side = side.replace("**", "^").replace(" ", "")
+    if not side:
+        raise CurveInputError("empty side in the equation")
+    terms: dict[tuple[int, int], Fraction] = {}
+    position = 0
+    while position < len(side):
+        match = _TERM.match(side, position)
+        if not match or match.end() == position:
+            raise CurveInputError(f"cannot read the equation near {side[position:]!r}")
+        sign, body = match.groups()
+        if sign is None and position > 0:
+            raise CurveInputError(f"missing + or - before {body!r}")
+        position = match.end()
+        coefficient, i, j = Fraction(1), 0, 0
+        for factor in body.split("*"):
+            parts = _FACTOR.match(factor)
+            if not parts:
+                raise CurveInputError(f"cannot read the factor {factor!r} (use numbers, x, y, ^ and *)")
+            number, variable, power = parts.groups()
+            if number is not None:
+                coefficient *= _rational(number)
+            else:
+                exponent = int(power or 1)
+                if exponent > 3:
+                    raise CurveInputError(f"{variable}^{exponent} does not occur in a Weierstrass equation")
+                i, j = (i + exponent, j) if variable == "x" else (i, j + exponent)
+        terms[(i, j)] = terms.get((i, j), Fraction(0)) + (-coefficient if sign == "-" else coefficient)
+    return terms
+
+
+def _from_equation(text: str) -> tuple[Fraction, ...]:
+    """Coefficients of an equation y² + a1xy + a3y = x³ + a2x² + a4x + a6 written in any arrangement."""
+    if text.count("=") != 1:
+        raise CurveInputError("a Weierstrass equation needs exactly one '='")
+    left, right = text.split("=")
+    terms = _side_terms(left)
+    for monomial, coefficient in _side_terms(right).items():
+        terms[monomial] = terms.get(monomial, Fraction(0)) - coefficient
+    terms = {m: c for m, c in terms.items() if c != 0}
+    if terms.get((0, 2)) is None or terms.get((3, 0)) is None or terms[(0, 2)] != -terms[(3, 0)]:
+        raise CurveInputError("the equation must have the form y^2 + a1*x*y + a3*y = x^3 + a2*x^2 + a4*x + a6")
+    scale = terms.pop((0, 2))
+    terms.pop((3, 0))
+    allowed = {(1, 1): 0, (0, 1): 2, (2, 0): 1, (1, 0): 3, (0, 0): 4}
+    a = [Fraction(0)] * 5
+    for monomial, coefficient in terms.items():
+        if monomial not in allowed:
+            raise CurveInputError(f"the term x^{monomial[0]}*y^{monomial[1]} does not occur in a Weierstrass equation")
+        index = allowed[monomial]
+        a[index] = coefficient / scale if index in (0, 2) else -coefficient / scale
+    return tuple(a)
+
+
+def parse_curve(text: str) -> tuple[Fraction, ...]:
+    """Read CURVE: ``[a1,a2,a3,a4,a6]``, ``[A,B]`` (y² = x³ + Ax + B) or a Weierstrass equation.
+
+    Returns the five coefficients a1..a6 as Fractions; raises CurveInputError with a one-line
+    reason for anything else, including singular curves.
+    """
+    if len(text) > MAX_INPUT_LENGTH:
+        raise CurveInputError(f"the curve is {len(text)} characters long; the limit is {MAX_INPUT_LENGTH}")
+    stripped = text.strip()
+    if "=" in stripped:
+        a = _from_equation(stripped)
+    elif stripped.startswith("[") and stripped.endswith("]"):
+        entries = [entry for entry in stripped[1:-1].split(",")]
+        if len(entries) == 5:
+            a = tuple(_rational(entry) for entry in entries)
+        elif len(entries) == 2:
+            A, B = (_rational(entry) for entry in entries)
+            a = (Fraction(0), Fraction(0), Fraction(0), A, B)
+        else:
+            raise CurveInputError(f"expected 5 coefficients [a1,a2,a3,a4,a6] or 2 [A,B], got {len(entries)}")
+    else:
+        raise CurveInputError("expected [a1,a2,a3,a4,a6], [A,B] or an equation such as y^2 + x*y = x^3 - x^2 + 3")
+    if Curve(a).discriminant == 0:
+        raise CurveInputError("the curve is singular (its discriminant is 0)")
+    return a
+
+
+def format_rational(value: Fraction) -> str:
+    """The decimal string of a rational: '-3', '5/4'."""
+    return str(value.numerator) if value.denominator == 1 else f"{value.numerator}/{value.denominator}"
+
+
+@dataclass(frozen=True)
+class Curve:
+    """A Weierstrass model over Q given by its coefficients (a1, a2, a3, a4, a6)."""
+
+    a: tuple
+
+    def __post_init__(self):
+        object.__setattr__(self, "a", tuple(Fraction(c) for c in self.a))
+
+    @cached_property
+    def b(self) -> tuple:
+        """(b2, b4, b6, b8) of Silverman III.1."""
+        return b_invariants(self.a)
+
+    @cached_property
+    def c4(self) -> Fraction:
+        return c_invariants(self.a)[0]
+
+    @cached_property
+    def c6(self) -> Fraction:
+        return c_invariants(self.a)[1]
+
+    @cached_property
+    def discriminant(self) -> Fraction:
+        return discriminant(self.a)
+
+    @cached_property
+    def j(self) -> Fraction:
+        return self.c4 ** 3 / self.discriminant
+
+    def is_integral(self) -> bool:
+        return all(c.denominator == 1 for c in self.a)
+
+    def change(self, change: Change) -> "Curve":
+        """The model obtained by x = u²x' + r, y = u³y' + su²x' + t (Silverman III.1, Table 3.1)."""
+        return Curve(change_model(self.a, tuple(Fraction(v) for v in change)))
+
+    def integral_model(self) -> tuple["Curve", Change]:
+        """An integral model [u, 0, 0, 0] with 1/u the least integer d making every d^i·a_i integral."""
+        d = 1
+        for p in _primes_dividing(math.lcm(*(c.denominator for c in self.a))):
+            d *= p ** max(-(-_valuation(c.denominator, p) // i) for i, c in zip((1, 2, 3, 4, 6), self.a))
+        change = (Fraction(1, d), Fraction(0), Fraction(0), Fraction(0))
+        return self.change(change), change
+
+    def minimal_model(self) -> tuple["Curve", Change]:
+        """The reduced minimal model and the change [u, r, s, t] from this model to it.
+
+        Minimal at p ≥ 5 means not (p⁴ | c4 and p⁶ | c6); at 2 and 3 the scaled invariants must
+        keep Δ integral and satisfy Kraus's conditions (Kraus 1989; Cremona, *Algorithms*, §3.2): v3(c6) ≠ 2, and
+        c6 ≡ −1 (mod 4) or (16 | c4 and c6 ≡ 0, 8 (mod 32)). The reduced model with a1, a3 ∈ {0, 1},
+        a2 ∈ {−1, 0, 1} is then rebuilt from (c4, c6) with b2 ≡ −c6 (mod 12) (Cremona §3.2).
+        """
+        integral, to_integral = self.integral_model()
+        c4, c6, discriminant = int(integral.c4), int(integral.c6), int(integral.discriminant)
+        u = 1
+        # p⁴ | c4 and p⁶ | c6 force p⁴ | gcd(c4, c6): only that (small) number needs factoring.
+        for p in _primes_dividing(math.gcd(c4, c6)):
+            e = min(_valuation(c4, p) // 4 if c4 else 10 ** 9, _valuation(c6, p) // 6 if c6 else 10 ** 9)
+            while e > 0 and not (_valuation(discriminant, p) >= 12 * e
+                                 and _kraus_at(p, c4 // p ** (4 * e), c6 // p ** (6 * e))):
+                e -= 1
+            u *= p ** e
+        c4, c6 = c4 // u ** 4, c6 // u ** 6
+        b2 = (-c6) % 12
+        if b2 > 6:
+            b2 -= 12
+        b4 = (b2 * b2 - c4) // 24
+        b6 = (-b2 ** 3 + 36 * b2 * b4 - c6) // 216
+        a1, a3 = b2 % 2, b6 % 2
+        minimal = Curve((a1, (b2 - a1) // 4, a3, (b4 - a1 * a3) // 2, (b6 - a3) // 4))
+        return minimal, self.isomorphism_to(minimal, scale=to_integral[0] * u)
+
+    def isomorphism_to(self, other: "Curve", scale: Optional[Fraction] = None) -> Optional[Change]:
+        """A change [u, r, s, t] taking this model to ``other`` over Q, or None if they are not isomorphic.
+
+        Isomorphic models have c4' = c4/u⁴, c6' = c6/u⁶ (Silverman III.1); given u, the rest of the
+        change is forced by the formulas for a1', a2', a3'. With j ≠ 0, 1728 u is fixed up to sign
+        by u² = (c6·c4')/(c6'·c4); in general u is found among the rational roots of u⁴ = c4/c4'
+        and u⁶ = c6/c6'.
+        """
+        candidates = [scale] if scale is not None else _scale_candidates(self, other)
+        for u in candidates:
+            s = (u * other.a[0] - self.a[0]) / 2
+            r = (u * u * other.a[1] - self.a[1] + s * self.a[0] + s * s) / 3
+            t = (u ** 3 * other.a[2] - self.a[2] - r * self.a[0]) / 2
+            if self.change((u, r, s, t)) == other:
+                return (u, r, s, t)
+        return None
+
+    def equation(self) -> str:
+        """The model as mathematicians write it: y^2 + xy + y = x^3 - x^2 - 10x - 20."""
+        a1, a2, a3, a4, a6 = self.a
+        left = "y^2" + _monomials([(a1, "xy"), (a3, "y")])
+        right = "x^3" + _monomials([(a2, "x^2"), (a4, "x"), (a6, "")])
+        return f"{left} = {right}"
+
+
+def _monomials(terms: list) -> str:
+    """' + 2x - 1/2' for [(2, 'x'), (-1/2, '')], dropping zero terms and unit coefficients."""
+    out = ""
+    for coefficient, monomial in terms:
+        if coefficient == 0:
+            continue
+        sign = " - " if coefficient < 0 else " + "
+        magnitude = format_rational(abs(coefficient))
+        out += sign + (monomial if magnitude == "1" and monomial else magnitude + monomial)
+    return out
+
+
+def _scale_candidates(curve: Curve, other: Curve) -> Iterator[Fraction]:
+    """The rationals u > 0 with c4 = u⁴c4' and c6 = u⁶c6', and their negatives."""
+    ratios = []
+    if curve.c4 != 0 and other.c4 != 0:
+        ratios.append((curve.c4 / other.c4, 4))
+    if curve.c6 != 0 and other.c6 != 0:
+        ratios.append((curve.c6 / other.c6, 6))
+    if not ratios or (curve.c4 == 0) != (other.c4 == 0) or (curve.c6 == 0) != (other.c6 == 0):
+        return
+    # u¹² = Δ/Δ' is a positive rational; its 12th root decides u up to sign.
+    ratio = curve.discriminant / other.discriminant
+    root = _rational_root(ratio, 12) if ratio > 0 else None
+    if root is None:
+        return
+    for u in (root, -root):
+        if all(value == u ** k for value, k in ratios):
+            yield u
+
+
+def _rational_root(value: Fraction, k: int) -> Optional[Fraction]:
+    """The positive rational k-th root of a positive rational, or None."""
+    roots = []
+    for part in (value.numerator, value.denominator):
+        root = _integer_root(part, k)
+        if root is None:
+            return None
+        roots.append(root)
+    return Fraction(roots[0], roots[1])
+
+
+def _integer_root(n: int, k: int) -> Optional[int]:
+    """The integer k-th root of n ≥ 0 if n is a perfect k-th power, by Newton's iteration on integers."""
+    if n < 2:
+        return n
+    x = 1 << (n.bit_length() // k + 1)
+    while True:
+        y = ((k - 1) * x + n // x ** (k - 1)) // k
+        if y >= x:
+            break
+        x = y
+    return x if x ** k == n else None
+
+
+def _kraus_at(p: int, c4: int, c6: int) -> bool:
+    """Kraus's local condition at p for (c4, c6) to be the invariants of a model integral at p."""
+    if p == 3:
+        return _valuation(c6, 3) != 2 if c6 else True
+    if p == 2:
+        return c6 % 4 == 3 or (c4 % 16 == 0 and c6 % 32 in (0, 8))
+    return True
+
+
+def _valuation(n: int, p: int) -> int:
+    """The exponent of p in the non-zero integer n."""
+    n, v = abs(n), 0
+    while n % p == 0:
+        n //= p
+        v += 1
+    return v
+
+
+def _primes_dividing(n: int) -> list[int]:
+    """The prime factors of n (PARI factors it; the certifier may use generic algebra)."""
+    if abs(n) <= 1:
+        return []
+    from certify.pari import pari
+
+    return [int(p) for p in pari.factor(abs(n))[0]]
+
+
+def inverse_change(change: Change) -> Change:
+    """The inverse of [u, r, s, t]: [1/u, −r/u², −s/u, (rs − t)/u³] (Silverman III.1)."""
+    u, r, s, t = change
+    return 1 / u, -r / u ** 2, -s / u, (r * s - t) / u ** 3

@@ -1,0 +1,38 @@
+"""The verifier: rechecks certify's certificates from the curve alone, with the standard library only.
+
+``verify(certificate)`` returns a summary of the checks run, or raises ``Rejection`` naming the check
+that failed and the values involved. Nothing here imports the rest of certify.
+"""
+from certify.verifier.errors import Rejection
+from certify.verifier.certificate import field
+
+
+def checkers() -> dict:
+    """format name → (accepted versions, check function)."""
+    from certify.verifier import torsion
+
+    table = {torsion.FORMAT: (torsion.VERSIONS, torsion.check_torsion_certificate)}
+    try:
+        from certify.verifier import isogeny
+    except ImportError:
+        return table
+    table[isogeny.FORMAT] = (isogeny.VERSIONS, isogeny.check_isogeny_certificate)
+    return table
+
+
+def verify(cert) -> dict:
+    """Check one certificate (parsed JSON); returns {"format": ..., "checks": {...}} or raises Rejection."""
+    if not isinstance(cert, dict):
+        raise Rejection("structure", "a certificate is a JSON object", found=type(cert).__name__)
+    name = field(cert, "format", str, "certificate")
+    version = field(cert, "version", str, "certificate")
+    known = checkers()
+    if name not in known:
+        raise Rejection("format", "unknown certificate format", format=name, known=sorted(known))
+    versions, check = known[name]
+    if version not in versions:
+        raise Rejection("format", "unknown version of the format", format=name, version=version, known=list(versions))
+    return {"format": name, "checks": check(cert)}
+
+
+__all__ = ["Rejection", "verify"]

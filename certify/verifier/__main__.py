@@ -1,0 +1,5 @@
+import sys
+
+from certify.verifier.cli import main
+
+sys.exit(main())

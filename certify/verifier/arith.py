@@ -1,0 +1,174 @@
+"""Exact arithmetic for the verifier: strict number parsing, integer polynomials, rational roots.
+
+Polynomials are lists of integers, constant term first. Nothing here searches: every routine is a
+direct computation whose cost is bounded by its inputs.
+"""
+import re
+from fractions import Fraction
+from math import gcd, isqrt
+
+from certify.verifier.errors import Rejection
+
+MAX_DIGITS = 4000
+"""Largest number of decimal digits accepted in one number of a certificate."""
+
+MAX_HINT_PRIME = 100_000
+"""Largest prime the verifier will run through (point counts, roots modulo p)."""
+
+_INTEGER = re.compile(r"-?(0|[1-9][0-9]*)")
+_RATIONAL = re.compile(r"-?(0|[1-9][0-9]*)(/[1-9][0-9]*)?")
+
+
+def parse_integer(text, what: str) -> int:
+    """An integer written canonically as a decimal string ('-12'; not '+12', '012', '1e3', '-0')."""
+    if not isinstance(text, str) or not _INTEGER.fullmatch(text) or text == "-0":
+        raise Rejection("number syntax", f"{what} is not an integer in canonical decimal form", value=text)
+    if len(text) > MAX_DIGITS:
+        raise Rejection("number size", f"{what} has more than {MAX_DIGITS} digits", digits=len(text))
+    return int(text)
+
+
+def parse_rational(text, what: str) -> Fraction:
+    """A rational written canonically as 'n' or 'n/d' with d > 1 and gcd(n, d) = 1."""
+    if not isinstance(text, str) or not _RATIONAL.fullmatch(text) or text.startswith("-0"):
+        raise Rejection("number syntax", f"{what} is not a rational in canonical form n or n/d", value=text)
+    if len(text) > 2 * MAX_DIGITS + 1:
+        raise Rejection("number size", f"{what} has more than {MAX_DIGITS} digits", digits=len(text))
+    numerator, _, denominator = text.partition("/")
+    value = Fraction(int(numerator), int(denominator or "1"))
+    if denominator and (value.denominator != int(denominator)):
+        raise Rejection("number syntax", f"{what} is not in lowest terms with denominator > 1", value=text)
+    return value
+
+
+def is_prime(n: int) -> bool:
+    """Primality by trial division; the verifier only meets primes up to MAX_HINT_PRIME."""
+    if n < 2:
+        return False
+    return all(n % d for d in range(2, isqrt(n) + 1))
+
+
+def prime_factors(n: int) -> list:
+    """The distinct prime factors of a positive integer by trial division (n is a small group order here)."""
+    factors, d = [], 2
+    while d * d <= n:
+        if n % d == 0:
+            factors.append(d)
+            while n % d == 0:
+                n //= d
+        d += 1
+    return factors + ([n] if n > 1 else [])
+
+
+def rational_square_root(value: Fraction):
+    """The non-negative rational square root of ``value``, or None if it is not a square in Q."""
+    if value < 0:
+        return None
+    root_n, root_d = isqrt(value.numerator), isqrt(value.denominator)
+    if root_n * root_n == value.numerator and root_d * root_d == value.denominator:
+        return Fraction(root_n, root_d)
+    return None
+
+
+# --- integer polynomials, constant term first ---
+
+def trim(f: list) -> list:
+    """f without leading zero coefficients."""
+    f = list(f)
+    while f and f[-1] == 0:
+        f.pop()
+    return f
+
+
+def poly_add(f: list, g: list) -> list:
+    size = max(len(f), len(g))
+    return trim([(f[i] if i < len(f) else 0) + (g[i] if i < len(g) else 0) for i in range(size)])
+
+
+def poly_scale(c, f: list) -> list:
+    return trim([c * a for a in f])
+
+
+def poly_sub(f: list, g: list) -> list:
+    return poly_add(f, poly_scale(-1, g))
+
+
+def poly_mul(f: list, g: list) -> list:
+    if not f or not g:
+        return []
+    out = [0] * (len(f) + len(g) - 1)
+    for i, a in enumerate(f):
+        if a:
+            for j, b in enumerate(g):
+                out[i + j] += a * b
+    return trim(out)
+
+
+def poly_eval(f: list, x):
+    """f(x) by Horner's rule, exactly (x an int or Fraction)."""
+    value = 0
+    for a in reversed(f):
+        value = value * x + a
+    return value
+
+
+def poly_eval_mod(f: list, x: int, m: int) -> int:
+    value = 0
+    for a in reversed(f):
+        value = (value * x + a) % m
+    return value
+
+
+def derivative(f: list) -> list:
+    return trim([i * a for i, a in enumerate(f)][1:])
+
+
+def clear_denominators(f: list) -> list:
+    """The integer polynomial d·f, where d is the least common denominator of the coefficients of f."""
+    common = 1
+    for a in f:
+        common = common * Fraction(a).denominator // gcd(common, Fraction(a).denominator)
+    return trim([int(Fraction(a) * common) for a in f])
+
+
+def rational_roots(f: list, p: int, what: str) -> list:
+    """All rational roots of the non-zero integer polynomial f, found exactly from the prime hint p.
+
+    Statement used (Hensel's lemma; rational root theorem): if p ∤ lc(f) and every root of f mod p is
+    simple, each rational root a/b (lowest terms, b | lc(f), a | f(0) when f(0) ≠ 0) is p-integral and
+    is the p-adic lift of exactly one root r of f mod p. Lifting r to precision M > 2·|lc(f)·f(0)|
+    determines the integer lc(f)·a/b as the symmetric residue of lc(f)·r mod M; that candidate is then
+    checked by exact evaluation. Hence the returned list is complete, without any search.
+    """
+    f = trim(f)
+    if not f:
+        raise Rejection("rational roots", f"{what}: the polynomial is zero")
+    roots = []
+    if f[0] == 0:
+        roots.append(Fraction(0))
+        while f[0] == 0:
+            f = f[1:]
+    if len(f) == 1:
+        return roots
+    if not (2 < p <= MAX_HINT_PRIME and is_prime(p)):
+        raise Rejection("rational roots", f"{what}: the hint is not an odd prime up to {MAX_HINT_PRIME}", p=p)
+    lead, constant, df = f[-1], f[0], derivative(f)
+    if lead % p == 0:
+        raise Rejection("rational roots", f"{what}: the hint prime divides the leading coefficient", p=p)
+    bound = 2 * abs(lead * constant)
+    for r in range(p):
+        if poly_eval_mod(f, r, p):
+            continue
+        if poly_eval_mod(df, r, p) == 0:
+            raise Rejection("rational roots", f"{what}: a root modulo the hint prime is not simple", p=p, root=r)
+        modulus = p
+        while modulus <= bound:
+            modulus *= modulus
+            r = (r - poly_eval_mod(f, r, modulus) * pow(poly_eval_mod(df, r, modulus), -1, modulus)) % modulus
+        candidate = (lead * r) % modulus
+        if candidate > modulus // 2:
+            candidate -= modulus
+        root = Fraction(candidate, lead)
+        if poly_eval(f, root) == 0:
+            roots.append(root)
+    return sorted(roots)

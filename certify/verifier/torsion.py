@@ -1,0 +1,176 @@
+"""Checks of a torsion certificate: the claim E(Q)_tors ≅ Z/n1 × Z/n2 with the given generators.
+
+The argument, each step one function below:
+1. the generators lie on the curve, have the claimed orders and generate a group G of order n1·n2;
+2. at each listed odd prime p of good reduction of an integral model, #E(F_p) is recounted; since
+   E(Q)_tors injects into E(F_p), |E(Q)_tors| divides B = gcd #E(F_p), and |G| divides B;
+3. for every prime ℓ dividing B/|G|: E(Q)[ℓ] = G[ℓ] (rational roots of the ℓ-torsion polynomial), and
+   no class Q ≠ 0 of G/ℓG is ℓ·P for a rational P (rational roots of φ_ℓ − x(Q)ψ_ℓ²). By elementary group
+   theory this gives E(Q)[ℓ^∞] = G[ℓ^∞]; for the other ℓ the ℓ-parts agree by the order bound.
+"""
+from math import gcd
+
+from certify.verifier.arith import parse_integer, prime_factors, rational_roots, parse_rational
+from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
+from certify.verifier.curves import (add, change_model, change_point, count_points, discriminant,
+                                     division_by_ell_polynomial, exact_order, multiple, negate,
+                                     points_with_x, torsion_polynomial)
+from certify.verifier.errors import Rejection
+
+FORMAT = "certify-torsion"
+VERSIONS = ("1",)
+MAZUR_LARGEST_GROUP = 16
+MAX_ELL = 13
+"""Largest prime ℓ for which the verifier builds division polynomials."""
+
+RELIES_ON = ("reduction-injective", "division-polynomials", "hensel-rational-roots", "mazur-torsion")
+
+
+def check_torsion_certificate(cert: dict) -> dict:
+    """Accept the claim or raise Rejection; returns counts of the checks run."""
+    a = read_curve(field(cert, "curve", list, "certificate"), "curve")
+    claim = field(cert, "claim", dict, "certificate")
+    evidence = field(cert, "evidence", dict, "certificate")
+    invariants = check_invariants(field(claim, "invariants", list, "claim"))
+    generators = [read_point(a, point, f"claim.generators[{i}]")
+                  for i, point in enumerate(field(claim, "generators", list, "claim"))]
+    check_generator_orders(a, invariants, generators, field(evidence, "generator_orders", list, "evidence"))
+    group = check_group(a, invariants, generators)
+    change, model = check_integral_model(a, field(evidence, "integral_model", dict, "evidence"))
+    model_group = [change_point(point, change) for point in group]
+    bound = check_reduction_bound(model, field(evidence, "primes", list, "evidence"), len(group))
+    entries = {parse_integer(field(entry, "ell", str, "evidence.ell_parts[]"), "ell"): entry
+               for entry in field(evidence, "ell_parts", list, "evidence")}
+    polynomials = 0
+    for ell in prime_factors(bound // len(group)):
+        if ell not in entries:
+            raise Rejection("ell part", "the point counts allow more ℓ-torsion and no division-polynomial "
+                            "evidence is given for ℓ", ell=ell, bound=bound, order=len(group))
+        polynomials += check_ell_part(a, change, model, ell, model_group, entries[ell])
+    check_relies_on(cert, RELIES_ON)
+    return {"points checked": len(generators), "group elements": len(group),
+            "primes recounted": len(evidence["primes"]), "polynomials solved": polynomials}
+
+
+def check_invariants(values: list) -> list:
+    """[] or [n] or [n1, n2] with 1 < n1 | n2, and n1·n2 within Mazur's bound."""
+    invariants = [parse_integer(v, f"claim.invariants[{i}]") for i, v in enumerate(values)]
+    if len(invariants) > 2 or any(n < 2 for n in invariants):
+        raise Rejection("invariants", "must be [], [n] or [n1, n2] with every n >= 2", invariants=values)
+    if len(invariants) == 2 and invariants[1] % invariants[0]:
+        raise Rejection("invariants", "n1 must divide n2", invariants=values)
+    order = invariants[0] * invariants[1] if len(invariants) == 2 else (invariants[0] if invariants else 1)
+    if order > MAZUR_LARGEST_GROUP:
+        raise Rejection("invariants", "no torsion subgroup over Q is this large (Mazur 1977)", order=order)
+    return invariants
+
+
+def check_generator_orders(a, invariants: list, generators: list, stated: list) -> None:
+    """Generator i has exact order n_i, the i-th invariant; the stated orders must say the same."""
+    if len(generators) != len(invariants):
+        raise Rejection("generators", "one generator per invariant is needed",
+                        generators=len(generators), invariants=len(invariants))
+    if [str(n) for n in invariants] != stated:
+        raise Rejection("generator orders", "evidence.generator_orders differs from the invariants", stated=stated)
+    for i, (n, point) in enumerate(zip(invariants, generators)):
+        order = exact_order(a, point, n)
+        if order != n:
+            raise Rejection("generator orders", f"generator {i} does not have order {n}", order=order or f"> {n}")
+
+
+def check_group(a, invariants: list, generators: list) -> list:
+    """The elements i·P1 + j·P2 of the generated group; they must be n1·n2 distinct points."""
+    elements = [None]
+    for n, point in zip(invariants, generators):
+        elements = [add(a, element, multiple(a, k, point)) for k in range(n) for element in elements]
+    if len(set(elements)) != len(elements):
+        raise Rejection("independence", "the generators do not generate a group of order n1·n2",
+                        expected=len(elements), found=len(set(elements)))
+    return elements
+
+
+def check_integral_model(a, entry: dict):
+    """The change [u, r, s, t] of the evidence must lead to an integral model; returns (change, model)."""
+    change = rationals(field(entry, "change", list, "evidence.integral_model"), 4, "integral_model.change")
+    model = change_model(a, change)
+    if any(c.denominator != 1 for c in model):
+        raise Rejection("integral model", "the change of variables does not give an integral model",
+                        model=[str(c) for c in model])
+    stated = rationals(field(entry, "curve", list, "evidence.integral_model"), 5, "integral_model.curve")
+    if stated != model:
+        raise Rejection("integral model", "the stated model is not the image of the curve", stated=entry["curve"])
+    return change, model
+
+
+def check_reduction_bound(model, primes: list, order: int) -> int:
+    """B = gcd of the recounted #E(F_p) over the listed primes; |G| must divide it."""
+    if not primes:
+        raise Rejection("reduction bound", "at least one prime is needed")
+    delta = int(discriminant(model))
+    bound = 0
+    for i, entry in enumerate(primes):
+        p = parse_integer(field(entry, "p", str, f"evidence.primes[{i}]"), "p")
+        stated = parse_integer(field(entry, "count", str, f"evidence.primes[{i}]"), "count")
+        if p <= 2 or p > 100_000 or delta % p == 0:
+            raise Rejection("good reduction", "each prime must be odd, at most 100000, and not divide Δ",
+                            p=p, discriminant=delta)
+        count = count_points(model, p)
+        if count != stated:
+            raise Rejection("point count", "the stated #E(F_p) is wrong", p=p, stated=stated, counted=count)
+        bound = gcd(bound, count)
+    if bound % order:
+        raise Rejection("reduction bound", "the group order does not divide every #E(F_p)", order=order, bound=bound)
+    return bound
+
+
+def check_ell_part(a, change, model, ell: int, group: list, entry: dict) -> int:
+    """E(Q)[ℓ^∞] = G[ℓ^∞]: conditions (i) and (ii) of the module docstring. Returns polynomials solved."""
+    if ell > MAX_ELL:
+        raise Rejection("ell part", f"the verifier builds division polynomials only up to ℓ = {MAX_ELL}; "
+                        "list more primes", ell=ell)
+    where = f"evidence.ell_parts[ell={ell}]"
+    check_ell_torsion(model, ell, group, field(entry, "torsion", dict, where), where)
+    classes = field(entry, "classes", list, where)
+    scaled = {multiple(model, ell, g) for g in group}
+    class_of = {g: frozenset(add(model, g, h) for h in scaled) for g in group}
+    uncovered = set(class_of.values()) - {frozenset(scaled)}
+    for i, item in enumerate(classes):
+        q = change_point(read_point(a, field(item, "point", list, where), f"{where}.classes[{i}].point"), change)
+        if q not in class_of:
+            raise Rejection("ell part", "a class representative is not in the claimed group", ell=ell, point=item["point"])
+        check_not_divisible(model, ell, q, item, f"{where}.classes[{i}]")
+        uncovered -= {class_of[q], class_of[negate(model, q)]}
+    if uncovered:
+        raise Rejection("ell part", "some non-zero classes of G/ℓG have no divisibility evidence",
+                        ell=ell, uncovered=len(uncovered))
+    return 1 + len(classes)
+
+
+def check_ell_torsion(model, ell: int, group: list, entry: dict, where: str) -> None:
+    """(i) every rational point with x among the rational roots of the ℓ-torsion polynomial is in G."""
+    roots = _solve(torsion_polynomial(model, ell), entry, where + ".torsion")
+    for x in roots:
+        for point in points_with_x(model, x):
+            if point not in group:
+                raise Rejection("ell torsion", "a rational point of order ℓ is missing from the claimed group",
+                                ell=ell, x=str(x))
+
+
+def check_not_divisible(model, ell: int, q, entry: dict, where: str) -> None:
+    """(ii) no rational P has ℓP = ±Q: no rational root x of φ_ℓ − x(Q)ψ_ℓ² has f(x) a rational square."""
+    for x in _solve(division_by_ell_polynomial(model, ell, q[0]), entry, where):
+        if points_with_x(model, x):
+            raise Rejection("ell division", "a point of the claimed group is ℓ times a rational point",
+                            ell=ell, x=str(x))
+
+
+def _solve(polynomial: list, entry: dict, where: str) -> list:
+    """The rational roots of the polynomial, from the entry's hint prime; they must match the stated roots."""
+    prime = parse_integer(field(entry, "prime", str, where), f"{where}.prime")
+    roots = rational_roots(polynomial, prime, where)
+    stated = sorted(parse_rational(v, f"{where}.roots") for v in field(entry, "roots", list, where))
+    if stated != roots:
+        raise Rejection("rational roots", f"{where}: the stated rational roots are not the roots",
+                        stated=[str(r) for r in stated], computed=[str(r) for r in roots])
+    return roots
+
