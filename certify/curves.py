@@ -240,13 +240,15 @@ class Curve:
 
 
 def _monomials(terms: list) -> str:
-    """' + 2x - 1/2' for [(2, 'x'), (-1/2, '')], dropping zero terms and unit coefficients."""
+    """' + 2x - (1/3)y - 1/2' for [(2, 'x'), (-1/3, 'y'), (-1/2, '')]: zero terms and unit coefficients dropped."""
     out = ""
     for coefficient, monomial in terms:
         if coefficient == 0:
             continue
         sign = " - " if coefficient < 0 else " + "
         magnitude = format_rational(abs(coefficient))
+        if monomial and "/" in magnitude:
+            magnitude = f"({magnitude})"
         out += sign + (monomial if magnitude == "1" and monomial else magnitude + monomial)
     return out
 
