@@ -3,4 +3,4 @@ integers and polynomials over Q, and counting points over finite fields."""
 import cypari2
 
 pari = cypari2.Pari()
-pari.allocatemem(2 * 10 ** 9, silent=True) if hasattr(pari, "allocatemem") else None
+pari.allocatemem(10 ** 8, 4 * 10 ** 9, silent=True)  # start at 100 MB; PARI doubles its stack up to 4 GB as needed

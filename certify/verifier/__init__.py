@@ -4,7 +4,7 @@
 that failed and the values involved. Nothing here imports the rest of certify.
 """
 from certify.verifier.errors import Rejection
-from certify.verifier.certificate import field
+from certify.verifier.certificate import check_depth, field
 
 
 def checkers() -> dict:
@@ -24,6 +24,7 @@ def verify(cert) -> dict:
     """Check one certificate (parsed JSON); returns {"format": ..., "checks": {...}} or raises Rejection."""
     if not isinstance(cert, dict):
         raise Rejection("structure", "a certificate is a JSON object", found=type(cert).__name__)
+    check_depth(cert)
     name = field(cert, "format", str, "certificate")
     version = field(cert, "version", str, "certificate")
     known = checkers()

@@ -8,12 +8,7 @@ from fractions import Fraction
 from math import gcd, isqrt
 
 from certify.verifier.errors import Rejection
-
-MAX_DIGITS = 4000
-"""Largest number of decimal digits accepted in one number of a certificate."""
-
-MAX_HINT_PRIME = 100_000
-"""Largest prime the verifier will run through (point counts, roots modulo p)."""
+from certify.verifier.limits import MAX_DIGITS, MAX_HINT_PRIME
 
 _INTEGER = re.compile(r"-?(0|[1-9][0-9]*)")
 _RATIONAL = re.compile(r"-?(0|[1-9][0-9]*)(/[1-9][0-9]*)?")
@@ -32,9 +27,9 @@ def parse_rational(text, what: str) -> Fraction:
     """A rational written canonically as 'n' or 'n/d' with d > 1 and gcd(n, d) = 1."""
     if not isinstance(text, str) or not _RATIONAL.fullmatch(text) or text.startswith("-0"):
         raise Rejection("number syntax", f"{what} is not a rational in canonical form n or n/d", value=text)
-    if len(text) > 2 * MAX_DIGITS + 1:
-        raise Rejection("number size", f"{what} has more than {MAX_DIGITS} digits", digits=len(text))
     numerator, _, denominator = text.partition("/")
+    if max(len(numerator), len(denominator)) > MAX_DIGITS:
+        raise Rejection("number size", f"{what} has more than {MAX_DIGITS} digits", digits=len(text))
     value = Fraction(int(numerator), int(denominator or "1"))
     if denominator and (value.denominator != int(denominator)):
         raise Rejection("number syntax", f"{what} is not in lowest terms with denominator > 1", value=text)

@@ -2,9 +2,18 @@
 from certify.verifier.arith import parse_rational
 from certify.verifier.curves import discriminant, on_curve
 from certify.verifier.errors import Rejection
+from certify.verifier.limits import MAX_DEPTH, MAX_LIST_LENGTH
 
-MAX_LIST_LENGTH = 10_000
-"""Longest list the verifier reads anywhere in a certificate."""
+
+def check_depth(document) -> None:
+    """The JSON document nests arrays and objects at most MAX_DEPTH deep (checked without recursion)."""
+    stack = [(document, 1)]
+    while stack:
+        value, depth = stack.pop()
+        if isinstance(value, (list, dict)):
+            if depth > MAX_DEPTH:
+                raise Rejection("nesting depth", f"the certificate nests deeper than {MAX_DEPTH} levels")
+            stack.extend((child, depth + 1) for child in (value.values() if isinstance(value, dict) else value))
 
 
 def field(obj, key: str, kind, where: str):

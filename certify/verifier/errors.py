@@ -1,8 +1,11 @@
 """The verifier's one rejection type."""
+from fractions import Fraction
 
 
 def show(value) -> str:
-    """A value for a message: long integers are abbreviated to their size."""
+    """A value for a message: numbers of more than 300 bits are abbreviated to their size."""
+    if isinstance(value, Fraction) and max(value.numerator.bit_length(), value.denominator.bit_length()) > 300:
+        return f"<rational of {max(value.numerator.bit_length(), value.denominator.bit_length())} bits>"
     if isinstance(value, int) and not isinstance(value, bool) and value.bit_length() > 300:
         return f"<{value.bit_length()}-bit integer>"
     if isinstance(value, (list, tuple)):

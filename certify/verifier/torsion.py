@@ -10,18 +10,17 @@ The argument, each step one function below:
 """
 from math import gcd
 
-from certify.verifier.arith import parse_integer, prime_factors, rational_roots, parse_rational
+from certify.verifier.arith import is_prime, parse_integer, parse_rational, prime_factors, rational_roots
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
 from certify.verifier.curves import (add, change_model, change_point, count_points, discriminant,
                                      division_by_ell_polynomial, exact_order, multiple, negate,
                                      points_with_x, torsion_polynomial)
 from certify.verifier.errors import Rejection
+from certify.verifier.limits import MAX_ELL, MAX_HINT_PRIME, MAX_POLYNOMIAL_SIZE, MAX_PRIMES, MAX_WORK
 
 FORMAT = "certify-torsion"
 VERSIONS = ("1",)
 MAZUR_LARGEST_GROUP = 16
-MAX_ELL = 13
-"""Largest prime ℓ for which the verifier builds division polynomials."""
 
 RELIES_ON = ("reduction-injective", "division-polynomials", "hensel-rational-roots", "mazur-torsion")
 
@@ -34,22 +33,67 @@ def check_torsion_certificate(cert: dict) -> dict:
     invariants = check_invariants(field(claim, "invariants", list, "claim"))
     generators = [read_point(a, point, f"claim.generators[{i}]")
                   for i, point in enumerate(field(claim, "generators", list, "claim"))]
+    change, model = check_integral_model(a, field(evidence, "integral_model", dict, "evidence"))
+    primes = read_primes(field(evidence, "primes", list, "evidence"))
+    ell_parts = read_ell_parts(field(evidence, "ell_parts", list, "evidence"))
+    check_work_budget(model, primes, ell_parts)
+    check_relies_on(cert, RELIES_ON)
+
     check_generator_orders(a, invariants, generators, field(evidence, "generator_orders", list, "evidence"))
     group = check_group(a, invariants, generators)
-    change, model = check_integral_model(a, field(evidence, "integral_model", dict, "evidence"))
     model_group = [change_point(point, change) for point in group]
-    bound = check_reduction_bound(model, field(evidence, "primes", list, "evidence"), len(group))
-    entries = {parse_integer(field(entry, "ell", str, "evidence.ell_parts[]"), "ell"): entry
-               for entry in field(evidence, "ell_parts", list, "evidence")}
+    bound = check_reduction_bound(model, primes, len(group))
     polynomials = 0
     for ell in prime_factors(bound // len(group)):
-        if ell not in entries:
+        if ell not in ell_parts:
             raise Rejection("ell part", "the point counts allow more ℓ-torsion and no division-polynomial "
                             "evidence is given for ℓ", ell=ell, bound=bound, order=len(group))
-        polynomials += check_ell_part(a, change, model, ell, model_group, entries[ell])
-    check_relies_on(cert, RELIES_ON)
+        polynomials += check_ell_part(a, change, model, ell, model_group, ell_parts[ell])
     return {"points checked": len(generators), "group elements": len(group),
-            "primes recounted": len(evidence["primes"]), "polynomials solved": polynomials}
+            "primes recounted": len(primes), "polynomials solved": polynomials}
+
+
+def read_primes(entries: list) -> dict:
+    """{p: stated #E(F_p)} from evidence.primes, at most MAX_PRIMES distinct entries."""
+    if len(entries) > MAX_PRIMES:
+        raise Rejection("list size", f"more than {MAX_PRIMES} primes are listed", primes=len(entries))
+    primes = {}
+    for i, entry in enumerate(entries):
+        p = parse_integer(field(entry, "p", str, f"evidence.primes[{i}]"), "p")
+        if p in primes:
+            raise Rejection("structure", "a prime is listed twice", p=p)
+        primes[p] = parse_integer(field(entry, "count", str, f"evidence.primes[{i}]"), "count")
+    return primes
+
+
+def read_ell_parts(entries: list) -> dict:
+    """{ℓ: entry} from evidence.ell_parts; ℓ prime, at most MAX_ELL, each listed once."""
+    parts = {}
+    for i, entry in enumerate(entries):
+        ell = parse_integer(field(entry, "ell", str, f"evidence.ell_parts[{i}]"), "ell")
+        if ell > MAX_ELL or not is_prime(ell) or ell in parts:
+            raise Rejection("ell part", f"each ℓ must be a prime up to {MAX_ELL}, listed once", ell=ell)
+        parts[ell] = entry
+    return parts
+
+
+def check_work_budget(model, primes: dict, ell_parts: dict) -> None:
+    """Refuse at once a certificate whose stated primes and hints would exceed MAX_WORK or
+    MAX_POLYNOMIAL_SIZE: Σ p over the counts plus Σ p·deg over the hinted polynomials."""
+    work = sum(min(p, MAX_HINT_PRIME + 1) for p in primes)
+    digits = max(c.numerator.bit_length() for c in model) * 30103 // 100000 + 1
+    for ell, entry in ell_parts.items():
+        degree = ell * ell
+        if degree * (degree * digits + 1) > MAX_POLYNOMIAL_SIZE:
+            raise Rejection("polynomial size", "the division polynomials for ℓ would exceed the size limit",
+                            ell=ell, model_digits=digits, limit=MAX_POLYNOMIAL_SIZE)
+        hints = [field(entry, "torsion", dict, f"ell_parts[{ell}]")] + field(entry, "classes", list, f"ell_parts[{ell}]")
+        for hint in hints:
+            prime = parse_integer(field(hint, "prime", str, f"ell_parts[{ell}]"), "prime")
+            work += min(prime, MAX_HINT_PRIME + 1) * degree
+    if work > MAX_WORK:
+        raise Rejection("work limit", "the stated primes and hints need more work than the verifier allows",
+                        work=work, limit=MAX_WORK)
 
 
 def check_invariants(values: list) -> list:
@@ -95,24 +139,22 @@ def check_integral_model(a, entry: dict):
     model = change_model(a, change)
     if any(c.denominator != 1 for c in model):
         raise Rejection("integral model", "the change of variables does not give an integral model",
-                        model=[str(c) for c in model])
+                        model=model)
     stated = rationals(field(entry, "curve", list, "evidence.integral_model"), 5, "integral_model.curve")
     if stated != model:
         raise Rejection("integral model", "the stated model is not the image of the curve", stated=entry["curve"])
     return change, model
 
 
-def check_reduction_bound(model, primes: list, order: int) -> int:
+def check_reduction_bound(model, primes: dict, order: int) -> int:
     """B = gcd of the recounted #E(F_p) over the listed primes; |G| must divide it."""
     if not primes:
         raise Rejection("reduction bound", "at least one prime is needed")
     delta = int(discriminant(model))
     bound = 0
-    for i, entry in enumerate(primes):
-        p = parse_integer(field(entry, "p", str, f"evidence.primes[{i}]"), "p")
-        stated = parse_integer(field(entry, "count", str, f"evidence.primes[{i}]"), "count")
-        if p <= 2 or p > 100_000 or delta % p == 0:
-            raise Rejection("good reduction", "each prime must be odd, at most 100000, and not divide Δ",
+    for p, stated in primes.items():
+        if p <= 2 or p > MAX_HINT_PRIME or delta % p == 0:
+            raise Rejection("good reduction", f"each prime must be odd, at most {MAX_HINT_PRIME}, and not divide Δ",
                             p=p, discriminant=delta)
         count = count_points(model, p)
         if count != stated:
@@ -125,9 +167,6 @@ def check_reduction_bound(model, primes: list, order: int) -> int:
 
 def check_ell_part(a, change, model, ell: int, group: list, entry: dict) -> int:
     """E(Q)[ℓ^∞] = G[ℓ^∞]: conditions (i) and (ii) of the module docstring. Returns polynomials solved."""
-    if ell > MAX_ELL:
-        raise Rejection("ell part", f"the verifier builds division polynomials only up to ℓ = {MAX_ELL}; "
-                        "list more primes", ell=ell)
     where = f"evidence.ell_parts[ell={ell}]"
     check_ell_torsion(model, ell, group, field(entry, "torsion", dict, where), where)
     classes = field(entry, "classes", list, where)
@@ -153,7 +192,7 @@ def check_ell_torsion(model, ell: int, group: list, entry: dict, where: str) -> 
         for point in points_with_x(model, x):
             if point not in group:
                 raise Rejection("ell torsion", "a rational point of order ℓ is missing from the claimed group",
-                                ell=ell, x=str(x))
+                                ell=ell, x=x)
 
 
 def check_not_divisible(model, ell: int, q, entry: dict, where: str) -> None:
@@ -161,7 +200,7 @@ def check_not_divisible(model, ell: int, q, entry: dict, where: str) -> None:
     for x in _solve(division_by_ell_polynomial(model, ell, q[0]), entry, where):
         if points_with_x(model, x):
             raise Rejection("ell division", "a point of the claimed group is ℓ times a rational point",
-                            ell=ell, x=str(x))
+                            ell=ell, x=x)
 
 
 def _solve(polynomial: list, entry: dict, where: str) -> list:
@@ -171,6 +210,6 @@ def _solve(polynomial: list, entry: dict, where: str) -> list:
     stated = sorted(parse_rational(v, f"{where}.roots") for v in field(entry, "roots", list, where))
     if stated != roots:
         raise Rejection("rational roots", f"{where}: the stated rational roots are not the roots",
-                        stated=[str(r) for r in stated], computed=[str(r) for r in roots])
+                        stated=stated, computed=roots)
     return roots
 
