@@ -25,3 +25,37 @@ def write_atomically(path: str, text: str) -> None:
     except BaseException:
         os.unlink(temporary)
         raise
+
+
+def stamp(cert: dict) -> dict:
+    """The certificate with a ``metadata`` block (UTC time of writing, certify, Python and PARI versions).
+    The digest leaves ``metadata`` out and the verifier never reads it, so stamping changes neither."""
+    import datetime
+    import platform
+
+    from certify import __version__
+    from certify.pari import pari
+
+    metadata = {"written": datetime.datetime.now(datetime.timezone.utc).strftime("%Y-%m-%dT%H:%M:%SZ"),
+                "certify": __version__, "python": platform.python_version(),
+                "pari": ".".join(str(part) for part in pari.version())}
+    return {**cert, "metadata": metadata}
+
+
+class NotAccepted(Exception):
+    """A certificate given to a command that builds on certificates is not accepted by the verifier."""
+
+
+def accepted_certificates(sources) -> list:
+    """[(name, certificate, verdict)] for every certificate in the sources (files, bundles, directories,
+    stores), in order; raises NotAccepted, naming the first certificate the verifier does not accept."""
+    from certify.verifier.cli import all_tasks, check, entries
+
+    out = []
+    for task in all_tasks(sources):
+        for name, document, recorded in entries(task):
+            verdict = check(name, document, recorded)
+            if not verdict["accepted"]:
+                raise NotAccepted(f"{name}: rejected — {verdict['reason']}")
+            out.append((name, document, verdict))
+    return out

@@ -1,0 +1,73 @@
+"""The readable verification report, --quiet and --jsonl, from certify verify and python -m certify.verifier."""
+import json
+import re
+import subprocess
+import sys
+from fractions import Fraction
+
+from hypothesis import given, strategies as st
+
+from certify.certificates import to_json
+from certify.curves import Curve, parse_curve
+from certify.torsion import certify_torsion
+from certify.verifier.digest import digest
+from certify.verifier.report import equation
+from certify.verifier.theorems import THEOREMS
+
+
+def run(*args):
+    return subprocess.run([sys.executable, *args], capture_output=True, text=True)
+
+
+def write(tmp_path, name, cert):
+    path = tmp_path / name
+    path.write_text(to_json(cert))
+    return str(path)
+
+
+rationals = st.fractions(max_denominator=50).map(lambda q: q.limit_denominator(50))
+
+
+@given(st.tuples(rationals, rationals, rationals, rationals, rationals))
+def test_report_equation_agrees_with_the_certifiers(a):
+    """Two writers of Weierstrass equations, the verifier's (stdlib) and certify.curves': they must agree."""
+    assert equation([str(c) for c in a]) == Curve(a).equation()
+
+
+def test_report_states_curve_claim_checks_theorems_digest_and_time(tmp_path):
+    cert = certify_torsion(parse_curve("[1,0,1,-19,26]"))
+    for entry in cert["relies_on"]:
+        entry["statement"] = "WORDING OF THE CERTIFICATE"
+    path = write(tmp_path, "c.json", cert)
+    report = run("-m", "certify", "verify", path)
+    assert report.returncode == 0
+    text = report.stdout
+    assert f"{path}: accepted" in text
+    assert "E: " + Curve(parse_curve("[1,0,1,-19,26]")).equation() in text
+    assert "E(Q)_tors ≅ " + " × ".join(f"Z/{n}Z" for n in cert["claim"]["invariants"]) in text
+    assert "primes recounted" in text and digest(cert) in text and re.search(r"time\s+\d+\.\d{3} s", text)
+    assert "WORDING OF THE CERTIFICATE" not in text
+    flat = " ".join(text.split())
+    for entry in cert["relies_on"]:
+        statement, reference = THEOREMS[entry["key"]]
+        assert " ".join(statement.split()) in flat and " ".join(reference.split()) in flat
+
+
+def test_rejected_report_names_the_failed_check(tmp_path):
+    cert = certify_torsion(parse_curve("[1,0,1,-19,26]"))
+    cert["evidence"]["primes"][0]["count"] = str(int(cert["evidence"]["primes"][0]["count"]) + 1)
+    report = run("-m", "certify", "verify", write(tmp_path, "bad.json", cert))
+    assert report.returncode == 1
+    assert ": rejected" in report.stdout and "failed" in report.stdout and "point count" in report.stdout
+
+
+def test_quiet_one_line_each_jsonl_exact_keys_and_standalone_same_report(tmp_path):
+    paths = [write(tmp_path, f"c{i}.json", certify_torsion(parse_curve(curve)))
+             for i, curve in enumerate(["[0,2,0,-15,0]", "[0,1,1,-2,7]"])]
+    quiet = run("-m", "certify", "verify", "--quiet", *paths).stdout.splitlines()
+    assert len(quiet) == 3 and all(line.startswith(path + ": accepted") for line, path in zip(quiet, paths))
+    lines = run("-m", "certify", "verify", "--jsonl", *paths).stdout.splitlines()
+    assert [set(json.loads(line)) for line in lines] == [{"file", "accepted", "reason"}] * 2
+    without_time = lambda text: re.sub(r"\d+\.\d{3} s", "", text)
+    assert without_time(run("-m", "certify.verifier", *paths).stdout) == \
+        without_time(run("-m", "certify", "verify", *paths).stdout)
