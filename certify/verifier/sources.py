@@ -13,9 +13,7 @@ import sqlite3
 
 from certify.verifier.digest import BUNDLE_FORMAT, digest
 from certify.verifier.errors import Rejection
-
-MAX_FILE_BYTES = 20_000_000
-"""Largest file (certificate or bundle) read."""
+from certify.verifier.limits import MAX_FILE_BYTES
 
 BUNDLE_VERSION = "1"
 
