@@ -1,0 +1,88 @@
+"""Rational kernel polynomials of the ℓ-isogenies of a curve over Q.
+
+A rational ℓ-subgroup C has a rational kernel polynomial h = Π (x − x(P)) over the pairs ±P of C − O,
+of degree 1 for ℓ = 2 and (ℓ − 1)/2 for ℓ odd, dividing the ℓ-division polynomial (Kohel 1996, §2.4).
+For ℓ ≤ 13 h is found among the products of irreducible factors of ψ_ℓ; Galois acts on the x(P) of C
+through a cyclic quotient of (Z/ℓ)*/±1, freely, so the factors of one kernel have one degree. For the
+larger ℓ of the finite j-lists the codomain is found first (certify.isogeny.modular) and the kernel
+from it (certify.isogeny.series)."""
+from fractions import Fraction
+from itertools import combinations
+
+from certify.curves import Curve
+from certify.isogeny.modular import codomain_candidates
+from certify.isogeny.series import kernel_from_codomain
+from certify.pari import pari
+from certify.verifier.curves import division_polynomials, two_division_polynomial
+from certify.verifier.errors import Rejection
+from certify.verifier.isogeny import check_isogeny_identity, velu_codomain
+
+
+def linear_kernels(roots: list) -> list:
+    """The kernel polynomials x − x0 (constant term first) for the rational roots x0 of F or ψ_3."""
+    return [[-x0, Fraction(1)] for x0 in roots]
+
+
+def is_kernel(model: Curve, ell: int, h: list) -> bool:
+    """Whether h defines a rational ℓ-isogeny from the model (the verifier's own identity check)."""
+    try:
+        check_isogeny_identity(model.a, velu_codomain(model.a, ell, h), ell, h, "candidate kernel")
+    except Rejection:
+        return False
+    return True
+
+
+def kernels_by_factoring(model: Curve, ell: int, expected: int) -> list:
+    """The ``expected`` rational kernel polynomials of degree (ℓ − 1)/2 among products of factors of ψ_ℓ."""
+    psi = division_polynomials(model.a, ell)[ell]
+    x = pari("x")
+    factors = pari.factor(sum(c * x ** i for i, c in enumerate(psi)))[0]
+    by_degree = {}
+    for factor in factors:
+        monic = factor / pari.pollead(factor)
+        by_degree.setdefault(int(pari.poldegree(monic)), []).append(
+            [Fraction(str(monic.polcoef(i))) for i in range(int(pari.poldegree(monic)) + 1)])
+    half, found = (ell - 1) // 2, []
+    for degree, group in sorted(by_degree.items()):
+        if half % degree:
+            continue
+        for choice in combinations(group, half // degree):
+            h = [Fraction(1)]
+            for factor in choice:
+                h = _multiply(h, factor)
+            if is_kernel(model, ell, h):
+                found.append(h)
+                if len(found) == expected:
+                    return found
+    raise RuntimeError(f"found {len(found)} of {expected} rational {ell}-isogeny kernels")
+
+
+def kernel_by_codomain(model: Curve, ell: int) -> list:
+    """The kernel polynomial of the one rational ℓ-isogeny of a curve whose j is in the list for ℓ."""
+    b2 = model.b[0]
+    for A2, B2 in codomain_candidates(model, ell):
+        short = kernel_from_codomain(-27 * model.c4, -54 * model.c6, A2, B2, ell)
+        if short is not None:
+            h = _substitute_affine(short, Fraction(36), 3 * b2)
+            if is_kernel(model, ell, h):
+                return h
+    raise RuntimeError(f"no rational {ell}-isogeny found from a curve with j in the list")
+
+
+def _multiply(f: list, g: list) -> list:
+    out = [Fraction(0)] * (len(f) + len(g) - 1)
+    for i, a in enumerate(f):
+        for k, b in enumerate(g):
+            out[i + k] += a * b
+    return out
+
+
+def _substitute_affine(h: list, scale: Fraction, shift: Fraction) -> list:
+    """h(scale·x + shift)/scale^deg h, monic again: the kernel polynomial after x_short = scale·x + shift
+    (x_short = 36x + 3b2 takes a model to its short model y² = x³ − 27c4x − 54c6)."""
+    out = [Fraction(0)]
+    for c in reversed(h):
+        out = _multiply(out, [shift, scale])
+        out[0] += c
+    lead = out[-1]
+    return [c / lead for c in out]

@@ -1,0 +1,135 @@
+"""The kernel polynomial of a normalised ℓ-isogeny whose codomain is known, without division polynomials.
+
+On y² = x³ + Ax + B the x-map of the normalised isogeny to y² = x³ + A′x + B′ is
+X(x) = x + Σ_{k≥1} τ_k x^{−k}, and it solves f(x)·X′² = X³ + A′X + B′ (Stark 1972; Bostan, Morain,
+Salvy and Schost 2008, Math. Comp. 77). Comparing coefficients of x^{2−k} gives
+(2k + 3)·τ_k = R_k, with R_k built from τ_1 … τ_{k−1}, so τ_1 = (A − A′)/5 and τ_2 = (B − B′)/7 as in
+Vélu's formulas. X − x = M/h² with deg M < deg h² = ℓ − 1, so the τ_k satisfy the linear recurrence
+whose characteristic polynomial is h²; the Berlekamp–Massey algorithm finds it from 2(ℓ − 1) terms.
+All of this runs modulo word-sized primes, and the coefficients of h are recovered by the Chinese
+remainder theorem and rational reconstruction; the candidate is then checked exactly.
+"""
+from fractions import Fraction
+
+from certify.pari import pari
+from certify.verifier.errors import Rejection
+from certify.verifier.isogeny import check_isogeny_identity, velu_codomain
+
+MAX_PRIMES = 400
+
+
+def recurrence_terms(A: int, B: int, A2: int, B2: int, count: int, p: int) -> list:
+    """[τ_1, …, τ_count] mod p for the formal solution X = x + Σ τ_k x^{−k} of f·X′² = X³ + A′X + B′."""
+    tau = [0] * (count + 1)          # tau[k] = τ_k, tau[0] unused
+    squares = [0] * (count + 2)      # squares[m] = coefficient of x^{−m} in (X − x)²
+    primes = [1, 0] + [0] * count    # primes[m] = coefficient of x^{−m} in X′²
+    cubes = [0] * (count + 2)        # cubes[m] = coefficient of x^{−m} in (X − x)³
+    for k in range(1, count + 1):
+        weighted = sum((i * (k - 1 - i) - 3) * tau[i] * tau[k - 1 - i] for i in range(1, k - 1))
+        value = weighted + A * primes[k - 1] + (B * primes[k - 2] if k >= 2 else 0)
+        value -= cubes[k - 2] if k >= 2 else 0
+        value -= A2 if k == 1 else (tau[k - 2] * A2 if k >= 3 else 0)
+        value -= B2 if k == 2 else 0
+        tau[k] = value * pow(2 * k + 3, -1, p) % p
+        squares[k] = sum(tau[i] * tau[k - i] for i in range(1, k)) % p
+        if k + 1 <= count:
+            primes[k + 1] = (-2 * k * tau[k] + sum(i * (k - 1 - i) * tau[i] * tau[k - 1 - i]
+                                                   for i in range(1, k - 1))) % p
+        cubes[k] = sum(squares[i] * tau[k - i] for i in range(2, k)) % p
+    return tau[1:]
+
+
+def berlekamp_massey(sequence: list, p: int) -> list:
+    """The monic characteristic polynomial (constant term first) of the shortest linear recurrence
+    that the sequence satisfies over F_p (Massey 1969)."""
+    c, b = [1], [1]
+    length, shift, last = 0, 1, 1
+    for n, term in enumerate(sequence):
+        discrepancy = (term + sum(c[i] * sequence[n - i] for i in range(1, length + 1))) % p
+        if discrepancy == 0:
+            shift += 1
+            continue
+        factor = discrepancy * pow(last, -1, p) % p
+        previous = list(c)
+        c = c + [0] * max(0, len(b) + shift - len(c))
+        for i, coefficient in enumerate(b):
+            c[i + shift] = (c[i + shift] - factor * coefficient) % p
+        if 2 * length <= n:
+            length, b, last, shift = n + 1 - length, previous, discrepancy, 1
+        else:
+            shift += 1
+    c = (c + [0] * (length + 1))[:length + 1]
+    return list(reversed(c))
+
+
+def monic_square_root(square: list, p: int):
+    """The monic h with h² = square over F_p, or None."""
+    degree = (len(square) - 1) // 2
+    if len(square) != 2 * degree + 1:
+        return None
+    h = [0] * degree + [1]
+    half = pow(2, -1, p)
+    for k in range(1, degree + 1):
+        top = 2 * degree - k
+        known = sum(h[i] * h[top - i] for i in range(top - degree, degree + 1) if i != degree - k
+                    and top - i != degree - k)
+        h[degree - k] = (square[top] - known) * half % p
+    check = [0] * (2 * degree + 1)
+    for i, x in enumerate(h):
+        for j, y in enumerate(h):
+            check[i + j] = (check[i + j] + x * y) % p
+    return h if check == [c % p for c in square] else None
+
+
+def reconstruct(residue: int, modulus: int):
+    """The fraction u/v with |u|, v ≤ √(modulus/2) congruent to residue, if any (Wang 1981)."""
+    bound = int((modulus // 2) ** 0.5) if modulus < 2 ** 1000 else _isqrt(modulus // 2)
+    r0, r1, s0, s1 = modulus, residue % modulus, 0, 1
+    while r1 > bound:
+        q = r0 // r1
+        r0, r1, s0, s1 = r1, r0 - q * r1, s1, s0 - q * s1
+    if s1 == 0 or abs(s1) > bound:
+        return None
+    return Fraction(r1, s1)
+
+
+def _isqrt(n: int) -> int:
+    from math import isqrt
+
+    return isqrt(n)
+
+
+def kernel_from_codomain(A: Fraction, B: Fraction, A2: Fraction, B2: Fraction, ell: int):
+    """The kernel polynomial (monic, constant term first) of the normalised ℓ-isogeny from
+    y² = x³ + Ax + B to y² = x³ + A′x + B′, ℓ odd, or None if there is none."""
+    short, target = (0, 0, 0, Fraction(A), Fraction(B)), (0, 0, 0, Fraction(A2), Fraction(B2))
+    count = 2 * (ell - 1) + 2
+    residues, modulus, previous = None, 1, None
+    p = pari.nextprime(2 ** 62)
+    for _ in range(MAX_PRIMES):
+        p = int(pari.nextprime(p + 1))
+        values = [int(Fraction(v).numerator * pow(Fraction(v).denominator, -1, p) % p) for v in (A, B, A2, B2)]
+        square = berlekamp_massey(recurrence_terms(*values, count, p), p)
+        if len(square) != ell:
+            return None
+        h = monic_square_root(square, p)
+        if h is None:
+            return None
+        if residues is None:
+            residues = h
+        else:
+            inverse = pow(modulus, -1, p)
+            residues = [r + modulus * ((x - r) * inverse % p) for r, x in zip(residues, h)]
+        modulus *= p
+        candidate = [reconstruct(r, modulus) for r in residues]
+        if None in candidate or candidate != previous:
+            previous = candidate
+            continue
+        if velu_codomain(short, ell, candidate) != target:
+            return None
+        try:
+            check_isogeny_identity(short, target, ell, candidate, "candidate kernel")
+        except Rejection:
+            return None
+        return candidate
+    return None

@@ -1,0 +1,566 @@
+"""Checks of an isogeny-class certificate: the claim that the listed reduced minimal models are the
+whole rational isogeny class of the curve, with the stated matrix of cyclic degrees.
+
+The argument, each step one function below:
+1. the first listed model is the input curve after the stated change of variables; every listed
+   model is a reduced minimal model, and no two are equal, so no two are isomorphic over Q;
+2. every edge is a rational isogeny of the stated prime degree ℓ with the stated kernel polynomial:
+   Kohel's form of Vélu's formulas gives the codomain and the x-map X = N/D, and one polynomial
+   identity shows that (x, η) ↦ (X, η·X′) maps the source onto that codomain (η = 2y + a1x + a3);
+   the change of variables takes the codomain to the listed target;
+3. for every listed curve and every prime ℓ of Mazur's list, a witness bounds the number of rational
+   ℓ-isogenies from that curve by the number of distinct listed ℓ-edges from it; since every isogeny
+   over Q is a composite of isogenies of prime degree over Q, the listed curves are the whole class;
+4. the edges connect the class, and the cyclic degree between two curves, the least degree of an
+   isogeny between them, is the least product of degrees along a path of edges.
+"""
+from fractions import Fraction
+from math import gcd
+
+from certify.verifier.arith import (derivative, is_prime, parse_integer, parse_rational, poly_add, poly_mul,
+                                    poly_scale, poly_sub, rational_roots, trim)
+from certify.verifier.certificate import check_relies_on, field, rationals, read_curve
+from certify.verifier.curves import (b_invariants, c_invariants, change_model, count_points, discriminant,
+                                     division_polynomials, two_division_polynomial)
+from certify.verifier.errors import Rejection
+from certify.verifier.limits import MAX_HINT_PRIME, MAX_WORK
+
+FORMAT = "certify-isogeny-class"
+VERSIONS = ("1",)
+
+MAZUR_PRIMES = (2, 3, 5, 7, 11, 13, 17, 19, 37, 43, 67, 163)
+"""The primes ℓ for which some elliptic curve over Q has a rational ℓ-isogeny (Mazur 1978)."""
+
+
+def _power(factor: list, k: int) -> list:
+    out = [1]
+    for _ in range(k):
+        out = poly_mul(out, factor)
+    return out
+
+
+X0_NUMERATORS = {
+    2: _power([16, 1], 3),
+    3: poly_mul([27, 1], _power([3, 1], 3)),
+    5: _power([5, 10, 1], 3),
+    7: poly_mul([49, 13, 1], _power([1, 5, 1], 3)),
+    13: poly_mul([13, 5, 1], _power([1, 19, 20, 7, 1], 3)),
+}
+"""ℓ → P_ℓ with j = P_ℓ(t)/t a Hauptmodul parametrisation of X_0(ℓ) (Fricke; Maier 2009, Table 3)."""
+
+FINITE_J = {
+    11: (Fraction(-11 * 131 ** 3), Fraction(-2 ** 15), Fraction(-11 ** 2)),
+    17: (Fraction(-17 ** 2 * 101 ** 3, 2), Fraction(-17 * 373 ** 3, 2 ** 17)),
+    19: (Fraction(-2 ** 15 * 3 ** 3),),
+    37: (Fraction(-7 * 11 ** 3), Fraction(-7 * 137 ** 3 * 2083 ** 3)),
+    43: (Fraction(-2 ** 18 * 3 ** 3 * 5 ** 3),),
+    67: (Fraction(-2 ** 15 * 3 ** 3 * 5 ** 3 * 11 ** 3),),
+    163: (Fraction(-2 ** 18 * 3 ** 3 * 5 ** 3 * 23 ** 3 * 29 ** 3),),
+}
+"""ℓ → the j-invariants of the curves over Q with a rational ℓ-isogeny, for the ℓ of Mazur's list
+where X_0(ℓ) has finitely many rational points."""
+
+THEOREMS = {
+    "velu-kohel": (
+        "For a finite subgroup G of E with kernel polynomial h, the normalised isogeny E -> E/G has codomain "
+        "a1, a2, a3, a4 - 5t, a6 - b2 t - 7w and x-map X = x + sum over Q (t_Q/(x - x_Q) + u_Q/(x - x_Q)^2), "
+        "with t, w, t_Q, u_Q power sums of the roots of h.",
+        "J. Velu, Isogenies entre courbes elliptiques, C. R. Acad. Sci. Paris 273 (1971), 238-241; "
+        "D. Kohel, Endomorphism rings of elliptic curves over finite fields, thesis, Berkeley (1996), 2.4"),
+    "isogeny-from-x-map": (
+        "A rational map between elliptic curves taking O to O is an isogeny; if its x-coordinate is a "
+        "rational function of x of degree l, the isogeny has degree l.",
+        "J. H. Silverman, The Arithmetic of Elliptic Curves, 2nd ed., Springer GTM 106 (2009), III.4.8 and II.2.3"),
+    "prime-degree-factorisation": (
+        "Every isogeny over Q is a composite of isogenies of prime degree over Q; Hom_Q(E, E') is free of "
+        "rank at most 1 (End_Q(E) = Z), so every rational isogeny E -> E' is a multiple of one cyclic isogeny, "
+        "of least degree.",
+        "Silverman, The Arithmetic of Elliptic Curves, III.4.11 and III.9.4; J. E. Cremona, Algorithms for "
+        "Modular Elliptic Curves, 2nd ed. (1997), 3.8"),
+    "mazur-isogeny-primes": (
+        "A rational isogeny of prime degree l of an elliptic curve over Q has l in "
+        "{2, 3, 5, 7, 11, 13, 17, 19, 37, 43, 67, 163}.",
+        "B. Mazur, Rational isogenies of prime degree, Invent. Math. 44 (1978), 129-162"),
+    "frobenius-isogeny": (
+        "If E has a rational l-isogeny and p is a prime of good reduction, p != l, then x^2 - a_p x + p is "
+        "reducible modulo l.",
+        "the kernel is a Galois-stable line in E[l]; e.g. A. V. Sutherland, A local-global principle for "
+        "rational isogenies of prime degree, J. Theor. Nombres Bordeaux 24 (2012), 475-485"),
+    "x0-hauptmodul": (
+        "For l in {2, 3, 5, 7, 13} and j(E) not 0 or 1728, the rational l-isogenies of E correspond one to one "
+        "to the rational roots t of P_l(t) - j(E) t.",
+        "R. Fricke, Die elliptischen Funktionen und ihre Anwendungen II (1922); R. S. Maier, On rationally "
+        "parametrized modular equations, J. Ramanujan Math. Soc. 24 (2009), 1-73"),
+    "finite-j-lists": (
+        "For l in {11, 17, 19, 37, 43, 67, 163} a curve over Q has a rational l-isogeny exactly when j is in "
+        "the published list for l, and then exactly one (no cyclic l^2-isogeny exists over Q).",
+        "Mazur 1978; M. A. Kenku, On the number of Q-isomorphism classes of elliptic curves in each "
+        "Q-isogeny class, J. Number Theory 15 (1982), 199-202; Cremona, Algorithms, 3.8"),
+    "reduced-minimal-models": (
+        "Every curve over Q has a unique reduced minimal model (a1, a3 in {0, 1}, a2 in {-1, 0, 1}); an "
+        "integral model is non-minimal at p >= 5 exactly when p^4 | c4 and p^6 | c6, and at p = 2, 3 exactly "
+        "when some change [p, r, s, t] with integers 0 <= r < p^2, 0 <= s < p, 0 <= t < p^3 keeps it integral.",
+        "Cremona, Algorithms for Modular Elliptic Curves, 3.2; Silverman, The Arithmetic of Elliptic "
+        "Curves, VII.1"),
+    "hensel-rational-roots": (
+        "A simple root of f mod p (p not dividing the leading coefficient) lifts to exactly one p-adic root; "
+        "a rational root a/b in lowest terms has a | f(0) and b | lc(f).",
+        "Hensel's lemma and the rational root theorem, e.g. H. Cohen, A Course in Computational Algebraic "
+        "Number Theory, Springer GTM 138 (1993), Sections 3.5 and 3.6"),
+}
+"""The published results these checks rest on, by key (the format of certify.verifier.theorems)."""
+
+RELIES_ON = tuple(THEOREMS)
+
+
+def check_isogeny_certificate(cert: dict) -> dict:
+    """Accept the claim or raise Rejection; returns counts of the checks run."""
+    a = read_curve(field(cert, "curve", list, "certificate"), "curve")
+    claim = field(cert, "claim", dict, "certificate")
+    evidence = field(cert, "evidence", dict, "certificate")
+    curves = read_models(field(claim, "curves", list, "claim"))
+    degrees = read_degrees(field(claim, "degrees", list, "claim"), len(curves))
+    edges = [read_edge(entry, len(curves), f"evidence.edges[{i}]")
+             for i, entry in enumerate(field(evidence, "edges", list, "evidence"))]
+    witnesses = read_witnesses(field(evidence, "completeness", list, "evidence"), len(curves))
+    check_relies_on(cert, RELIES_ON)
+    check_work_budget(witnesses)
+
+    check_input_model(a, curves[0], rationals(field(evidence, "input_change", list, "evidence"), 4,
+                                              "evidence.input_change"))
+    hints = field(evidence, "minimality", list, "evidence")
+    if len(hints) != len(curves):
+        raise Rejection("structure", "evidence.minimality needs one entry per listed curve",
+                        entries=len(hints), curves=len(curves))
+    for i, model in enumerate(curves):
+        check_reduced_minimal(model, hints[i], f"claim.curves[{i}]")
+    check_distinct(curves)
+    for edge in edges:
+        check_edge(curves, edge)
+    kernels = distinct_kernels(edges)
+    for (i, ell), witness in witnesses.items():
+        check_witness(curves[i], i, ell, witness, kernels.get((i, ell), 0))
+    check_connected(len(curves), edges)
+    check_degrees(degrees, cyclic_degrees(len(curves), edges))
+    return {"curves checked": len(curves), "kernels rechecked": len(edges), "witnesses checked": len(witnesses)}
+
+
+# --- reading ---
+
+def read_models(entries: list) -> list:
+    """The listed models: at least one, each five integers of a non-singular curve."""
+    if not entries:
+        raise Rejection("structure", "claim.curves is empty")
+    models = []
+    for i, entry in enumerate(entries):
+        model = read_curve(entry, f"claim.curves[{i}]")
+        if any(c.denominator != 1 for c in model):
+            raise Rejection("minimal model", "a listed model is not integral", index=i, curve=entry)
+        models.append(model)
+    return models
+
+
+def read_degrees(rows: list, size: int) -> list:
+    """The claimed degree matrix: size × size positive integers."""
+    if len(rows) != size or any(not isinstance(row, list) or len(row) != size for row in rows):
+        raise Rejection("structure", "claim.degrees must be a square matrix with one row per curve", curves=size)
+    return [[parse_integer(value, f"claim.degrees[{i}][{j}]") for j, value in enumerate(row)]
+            for i, row in enumerate(rows)]
+
+
+def read_index(entry: dict, key: str, size: int, where: str) -> int:
+    value = parse_integer(field(entry, key, str, where), f"{where}.{key}")
+    if not 0 <= value < size:
+        raise Rejection("structure", f"{where}.{key} is not the index of a listed curve", index=value, curves=size)
+    return value
+
+
+def read_ell(entry: dict, where: str) -> int:
+    ell = parse_integer(field(entry, "degree", str, where), f"{where}.degree")
+    if ell not in MAZUR_PRIMES:
+        raise Rejection("degree", f"{where}.degree is not a prime of Mazur's list", degree=ell)
+    return ell
+
+
+def read_edge(entry: dict, size: int, where: str) -> dict:
+    """One edge: source and target indices, prime degree ℓ, monic kernel polynomial, change of variables."""
+    ell = read_ell(entry, where)
+    kernel = field(entry, "kernel", list, where)
+    expected = 1 if ell == 2 else (ell - 1) // 2
+    if len(kernel) != expected + 1:
+        raise Rejection("kernel polynomial", f"{where}.kernel must have degree {expected} for ℓ = {ell}",
+                        degree=len(kernel) - 1, ell=ell)
+    h = [parse_rational(c, f"{where}.kernel[{k}]") for k, c in enumerate(kernel)]
+    if h[-1] != 1:
+        raise Rejection("kernel polynomial", f"{where}.kernel is not monic", leading=h[-1])
+    return {"source": read_index(entry, "source", size, where), "target": read_index(entry, "target", size, where),
+            "ell": ell, "kernel": h, "change": rationals(field(entry, "change", list, where), 4, f"{where}.change"),
+            "where": where}
+
+
+def read_witnesses(entries: list, size: int) -> dict:
+    """{(curve index, ℓ): witness}: exactly one for every listed curve and every ℓ of Mazur's list."""
+    witnesses = {}
+    for i, entry in enumerate(entries):
+        where = f"evidence.completeness[{i}]"
+        key = (read_index(entry, "curve", size, where), read_ell(entry, where))
+        if key in witnesses:
+            raise Rejection("completeness", "two witnesses for one curve and one ℓ", curve=key[0], ell=key[1])
+        witnesses[key] = entry
+    missing = [(i, ell) for i in range(size) for ell in MAZUR_PRIMES if (i, ell) not in witnesses]
+    if missing:
+        raise Rejection("completeness", "no completeness witness for some curve and ℓ",
+                        curve=missing[0][0], ell=missing[0][1], missing=len(missing))
+    return witnesses
+
+
+def witness_prime(witness: dict, where: str) -> int:
+    p = parse_integer(field(witness, "prime", str, where), f"{where}.prime")
+    if not (2 < p <= MAX_HINT_PRIME and is_prime(p)):
+        raise Rejection("witness prime", f"{where}.prime is not an odd prime up to {MAX_HINT_PRIME}", p=p)
+    return p
+
+
+def check_work_budget(witnesses: dict) -> None:
+    """Refuse at once witnesses whose primes would cost more than MAX_WORK residue evaluations."""
+    degree = {"frobenius": 1, "j-list": 0, "division-roots": 4, "x0-roots": 15}
+    work = 0
+    for (i, ell), witness in witnesses.items():
+        method = field(witness, "method", str, f"completeness witness of curve {i}, ℓ = {ell}")
+        if method in ("frobenius", "division-roots", "x0-roots"):
+            work += degree[method] * witness_prime(witness, f"witness of curve {i}, ℓ = {ell}")
+    if work > MAX_WORK:
+        raise Rejection("work budget", "the witness primes would take too long to check", work=work, limit=MAX_WORK)
+
+
+# --- the models ---
+
+def check_input_model(a, first, change) -> None:
+    """The stated change of variables takes the input curve to the first listed model."""
+    if change_model(a, change) != tuple(first):
+        raise Rejection("input model", "the change of variables does not take the input curve to the first "
+                        "listed model", change=list(change), curve=list(first))
+
+
+def check_reduced_minimal(model, hint: dict, where: str) -> None:
+    """The integral model is reduced and minimal at every prime, given the primes p ≥ 5 dividing gcd(c4, c6)."""
+    a1, a2, a3, _, _ = model
+    if a1 not in (0, 1) or a3 not in (0, 1) or a2 not in (-1, 0, 1):
+        raise Rejection("minimal model", f"{where} is not reduced (a1, a3 in {{0, 1}}, a2 in {{-1, 0, 1}})",
+                        curve=list(model))
+    c4, c6 = (int(c) for c in c_invariants(model))
+    delta = int(discriminant(model))
+    for p in (2, 3):
+        if delta % p ** 12 == 0 and scales_down_at(model, p):
+            raise Rejection("minimal model", f"{where} is not minimal at p", p=p, curve=list(model))
+    rest = abs(gcd(c4, c6))
+    for p in (2, 3):
+        while rest % p == 0:
+            rest //= p
+    primes = [parse_integer(value, f"{where} minimality prime") for value in field(hint, "primes", list, where)]
+    for p in primes:
+        if p < 5 or not is_probable_prime_certain(p):
+            raise Rejection("minimal model", "a listed prime of gcd(c4, c6) is not a prime >= 5 the verifier can "
+                            "confirm", p=p)
+        if c4 % p ** 4 == 0 and c6 % p ** 6 == 0:
+            raise Rejection("minimal model", f"{where} is not minimal at p", p=p, curve=list(model))
+        while rest % p == 0:
+            rest //= p
+    if rest != 1:
+        raise Rejection("minimal model", f"the listed primes do not account for gcd(c4, c6) of {where}",
+                        unexplained=rest)
+
+
+def scales_down_at(model, p: int) -> bool:
+    """Whether some change [p, r, s, t] with 0 ≤ r < p², 0 ≤ s < p, 0 ≤ t < p³ gives an integral model."""
+    return any(all(c.denominator == 1 for c in change_model(model, (p, r, s, t)))
+               for r in range(p * p) for s in range(p) for t in range(p ** 3))
+
+
+def is_probable_prime_certain(n: int) -> bool:
+    """Primality, proved: Miller–Rabin to the first 13 prime bases is deterministic below 3.3·10²⁴
+    (Sorenson and Webster 2016); larger numbers are refused."""
+    if n < 2 or n >= 3_317_044_064_679_887_385_961_981:
+        return False
+    bases = (2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41)
+    if n in bases:
+        return True
+    if any(n % b == 0 for b in bases):
+        return False
+    d, s = n - 1, 0
+    while d % 2 == 0:
+        d, s = d // 2, s + 1
+    for b in bases:
+        x = pow(b, d, n)
+        if x in (1, n - 1):
+            continue
+        for _ in range(s - 1):
+            x = x * x % n
+            if x == n - 1:
+                break
+        else:
+            return False
+    return True
+
+
+def check_distinct(curves: list) -> None:
+    """No model is listed twice (distinct reduced minimal models are not isomorphic over Q)."""
+    seen = {}
+    for i, model in enumerate(curves):
+        if model in seen:
+            raise Rejection("distinct curves", "a model is listed twice", first=seen[model], second=i)
+        seen[model] = i
+
+
+# --- edges ---
+
+def power_sums(h: list, count: int) -> list:
+    """[p_1, …, p_count], the power sums of the roots of the monic polynomial h (Newton's identities)."""
+    n = len(h) - 1
+    e = [Fraction(1)] + [(-1) ** k * h[n - k] for k in range(1, n + 1)]
+    sums = []
+    for k in range(1, count + 1):
+        value = (-1) ** (k - 1) * k * e[k] if k <= n else 0
+        for i in range(1, k):
+            value += (-1) ** (i - 1) * (e[i] if i <= n else 0) * sums[k - i - 1]
+        sums.append(value)
+    return sums
+
+
+def velu_codomain(a, ell: int, h: list) -> tuple:
+    """The codomain of the normalised ℓ-isogeny with kernel polynomial h, by Kohel's form of Vélu's
+    formulas (Vélu 1971; Kohel 1996, §2.4): t = Σ_Q t_Q and w = Σ_Q (u_Q + x_Q t_Q) over the kernel
+    points up to sign, which for ℓ odd are t = 6p2 + b2p1 + n·b4 and w = 10p3 + 2b2p2 + 3b4p1 + n·b6
+    (p_k the power sums of the n roots of h), and for ℓ = 2 with h = x − x0 are t = (6x0² + b2x0 + b4)/2,
+    w = x0·t."""
+    a1, a2, a3, a4, a6 = a
+    b2, b4, b6, _ = b_invariants(a)
+    if ell == 2:
+        x0 = -h[0]
+        t = (6 * x0 * x0 + b2 * x0 + b4) / 2
+        w = x0 * t
+    else:
+        n = len(h) - 1
+        p1, p2, p3 = power_sums(h, 3)
+        t = 6 * p2 + b2 * p1 + n * b4
+        w = 10 * p3 + 2 * b2 * p2 + 3 * b4 * p1 + n * b6
+    return a1, a2, a3, a4 - 5 * t, a6 - b2 * t - 7 * w
+
+
+def x_map(a, ell: int, h: list) -> tuple:
+    """(N, D) with X = N/D the x-coordinate of the Vélu isogeny with kernel polynomial h.
+
+    With F = 4x³ + b2x² + 2b4x + b6, t_Q = F′(x_Q)/2 and u_Q = F(x_Q) for ℓ odd, Vélu's
+    X = x + Σ (t_Q/(x − x_Q) + u_Q/(x − x_Q)²) sums by Taylor expansion to
+    X = ((ℓx − 2s1)h² − F′h′h/2 + F(h′² − hh″))/h², s1 the sum of the roots of h;
+    for ℓ = 2 the one term is t_Q/(x − x0) with t_Q = F′(x0)/4 (Vélu 1971; Kohel 1996, §2.4)."""
+    f = [Fraction(c) for c in curve_cubic(a)]
+    df = derivative(f)
+    if ell == 2:
+        return poly_add(poly_mul([0, 1], h), [sum(c * (-h[0]) ** i for i, c in enumerate(df)) / 4]), list(h)
+    dh = derivative(h)
+    s1 = -h[-2]
+    h2 = poly_mul(h, h)
+    numerator = poly_sub(poly_mul([-2 * s1, ell], h2), poly_scale(Fraction(1, 2), poly_mul(df, poly_mul(dh, h))))
+    numerator = poly_add(numerator, poly_mul(f, poly_sub(poly_mul(dh, dh), poly_mul(h, derivative(dh)))))
+    return numerator, h2
+
+
+def curve_cubic(a) -> list:
+    """F = 4x³ + b2x² + 2b4x + b6 with η² = F(x) for η = 2y + a1x + a3 (Silverman III.1)."""
+    b2, b4, b6, _ = b_invariants(a)
+    return [b6, 2 * b4, b2, 4]
+
+
+def integral_pair(n: list, d: list) -> tuple:
+    """(λN, λD) with λ the least positive rational making both integer polynomials."""
+    common = 1
+    for c in n + d:
+        common = common * c.denominator // gcd(common, c.denominator)
+    content = 0
+    for c in n + d:
+        content = gcd(content, int(c * common))
+    return [int(c * common) // content for c in n], [int(c * common) // content for c in d]
+
+
+def coprime_mod(f: list, g: list, p: int) -> bool:
+    """Whether gcd(f mod p, g mod p) is constant (Euclid's algorithm over F_p)."""
+    f, g = trim([c % p for c in f]), trim([c % p for c in g])
+    while g:
+        inverse = pow(g[-1], -1, p)
+        while len(f) >= len(g):
+            factor, shift = f[-1] * inverse % p, len(f) - len(g)
+            f = trim([(c - factor * g[i - shift]) % p if i >= shift else c for i, c in enumerate(f)])
+        f, g = g, f
+    return len(f) == 1
+
+
+def check_edge(curves: list, edge: dict) -> None:
+    """The kernel polynomial gives a rational isogeny of degree ℓ from the source whose Vélu codomain the
+    change of variables takes to the target."""
+    where, ell, h = edge["where"], edge["ell"], edge["kernel"]
+    source = curves[edge["source"]]
+    codomain = velu_codomain(source, ell, h)
+    check_isogeny_identity(source, codomain, ell, h, where)
+    if change_model(codomain, edge["change"]) != curves[edge["target"]]:
+        raise Rejection("edge target", f"{where}: the change of variables does not take the Vélu codomain to the "
+                        "target model", codomain=list(codomain), target=list(curves[edge["target"]]))
+
+
+def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> None:
+    """(x, η) ↦ (N/D, η·(N/D)′) maps the source to the codomain, and N/D has degree ℓ.
+
+    The map lands on η′² = F′(X) exactly when F·(N′D − ND′)² = D·(4N³ + b2N²D + 2b4′ND² + b6′D³);
+    it takes O to O since deg N > deg D, so it is an isogeny (Silverman III.4.8) of degree
+    deg(N/D) = ℓ when N and D are coprime, and its kernel is O and the points with D(x) = 0."""
+    if discriminant(codomain) == 0:
+        raise Rejection("kernel polynomial", f"{where}: the Vélu codomain is singular")
+    n, d = integral_pair(*x_map(source, ell, h))
+    if len(n) - 1 != ell or len(d) - 1 != ell - 1:
+        raise Rejection("kernel polynomial", f"{where}: the x-map does not have degree ℓ", ell=ell)
+    p = next(q for q in range(10 ** 6 + 3, 10 ** 7, 2) if is_prime(q) and n[-1] % q and d[-1] % q)
+    if not coprime_mod(n, d, p):
+        raise Rejection("kernel polynomial", f"{where}: the x-map has a common factor, so the kernel polynomial "
+                        "does not define a subgroup of order ℓ", ell=ell)
+    _, b4, b6, _ = b_invariants(codomain)
+    b2 = b_invariants(source)[0]
+    f = [int(c) for c in curve_cubic(source)]
+    wronskian = poly_sub(poly_mul(derivative(n), d), poly_mul(n, derivative(d)))
+    left = poly_mul(f, poly_mul(wronskian, wronskian))
+    nn, dd = poly_mul(n, n), poly_mul(d, d)
+    right = [Fraction(c) for c in poly_mul(d, poly_add(
+        poly_add(poly_scale(4, poly_mul(nn, n)), poly_scale(b2, poly_mul(nn, d))),
+        poly_add(poly_scale(2 * b4, poly_mul(n, dd)), poly_scale(b6, poly_mul(dd, d)))))]
+    if trim([Fraction(c) for c in left]) != trim(right):
+        raise Rejection("kernel polynomial", f"{where}: the kernel polynomial does not define an ℓ-isogeny to the "
+                        "Vélu codomain (the isogeny identity fails)", ell=ell)
+
+
+def distinct_kernels(edges: list) -> dict:
+    """{(source, ℓ): number of edges}, refusing an edge listed twice (same source and kernel polynomial)."""
+    seen, counts = set(), {}
+    for edge in edges:
+        key = (edge["source"], edge["ell"], tuple(edge["kernel"]))
+        if key in seen:
+            raise Rejection("distinct edges", f"{edge['where']} repeats an earlier kernel from the same curve",
+                            source=edge["source"], ell=edge["ell"])
+        seen.add(key)
+        counts[key[:2]] = counts.get(key[:2], 0) + 1
+    return counts
+
+
+# --- completeness witnesses ---
+
+def j_invariant(model) -> Fraction:
+    c4, _ = c_invariants(model)
+    return c4 ** 3 / discriminant(model)
+
+
+def check_witness(model, index: int, ell: int, witness: dict, listed: int) -> None:
+    """The witness shows that the curve has at most ``listed`` rational ℓ-isogenies."""
+    where = f"completeness witness of curve {index}, ℓ = {ell}"
+    method = field(witness, "method", str, where)
+    if method == "frobenius":
+        bound = frobenius_bound(model, ell, witness, where)
+    elif method == "x0-roots":
+        bound = x0_roots_bound(model, ell, witness, where)
+    elif method == "division-roots":
+        bound = division_roots_bound(model, ell, witness, where)
+    elif method == "j-list":
+        bound = j_list_bound(model, ell)
+    else:
+        raise Rejection("completeness", f"{where}: unknown method", method=method)
+    if listed != bound:
+        raise Rejection("completeness", f"{where}: the curve has {bound} rational ℓ-isogenies and {listed} are "
+                        "listed", curve=index, ell=ell, listed=listed, exact=bound)
+
+
+def frobenius_bound(model, ell: int, witness: dict, where: str) -> int:
+    """0, when a_p² − 4p is a non-zero non-square mod ℓ at a good prime p ≠ ℓ (then x² − a_p x + p is
+    irreducible mod ℓ and no rational ℓ-isogeny exists)."""
+    p = witness_prime(witness, where)
+    if ell == 2 or p == ell or int(discriminant(model)) % p == 0:
+        raise Rejection("frobenius witness", f"{where}: need ℓ odd and a good prime p ≠ ℓ", p=p, ell=ell)
+    trace = p + 1 - count_points(model, p)
+    value = (trace * trace - 4 * p) % ell
+    if value == 0 or pow(value, (ell - 1) // 2, ell) == 1:
+        raise Rejection("frobenius witness", f"{where}: a_p² − 4p is zero or a square mod ℓ", p=p, a_p=trace,
+                        ell=ell)
+    return 0
+
+
+def stated_roots(witness: dict, where: str) -> list:
+    return sorted(parse_rational(v, f"{where}.roots") for v in field(witness, "roots", list, where))
+
+
+def x0_roots_bound(model, ell: int, witness: dict, where: str) -> int:
+    """The number of rational roots of P_ℓ(t) − j·t, recomputed exactly from the hint prime."""
+    j = j_invariant(model)
+    if ell not in X0_NUMERATORS or j in (0, 1728):
+        raise Rejection("x0 witness", f"{where}: needs ℓ in {{2, 3, 5, 7, 13}} and j not 0 or 1728", j=j, ell=ell)
+    polynomial = poly_sub(poly_scale(j.denominator, X0_NUMERATORS[ell]), [0, j.numerator])
+    roots = rational_roots(polynomial, witness_prime(witness, where), where)
+    if roots != stated_roots(witness, where):
+        raise Rejection("x0 witness", f"{where}: the stated roots are not the rational roots", roots=roots)
+    return len(roots)
+
+
+def division_roots_bound(model, ell: int, witness: dict, where: str) -> int:
+    """For ℓ = 2 or 3 the rational ℓ-isogenies are the x ↦ x − x0 with x0 a rational root of F (ℓ = 2) or
+    ψ_3 (ℓ = 3): a subgroup {O, ±P} is rational exactly when x(P) is."""
+    if ell not in (2, 3):
+        raise Rejection("division witness", f"{where}: only for ℓ = 2 or 3", ell=ell)
+    polynomial = two_division_polynomial(model) if ell == 2 else division_polynomials(model, 3)[3]
+    roots = rational_roots(polynomial, witness_prime(witness, where), where)
+    if roots != stated_roots(witness, where):
+        raise Rejection("division witness", f"{where}: the stated roots are not the rational roots", roots=roots)
+    return len(roots)
+
+
+def j_list_bound(model, ell: int) -> int:
+    """1 if j is in the published list for ℓ, else 0."""
+    if ell not in FINITE_J:
+        raise Rejection("j-list witness", "no finite j-list for this ℓ", ell=ell)
+    return 1 if j_invariant(model) in FINITE_J[ell] else 0
+
+
+# --- the class ---
+
+def check_connected(size: int, edges: list) -> None:
+    """Every listed curve is reached from the first by edges."""
+    reached, frontier = {0}, [0]
+    while frontier:
+        node = frontier.pop()
+        for edge in edges:
+            if edge["source"] == node and edge["target"] not in reached:
+                reached.add(edge["target"])
+                frontier.append(edge["target"])
+    if len(reached) != size:
+        raise Rejection("connected class", "some listed curve is not reached from the input curve by the edges",
+                        unreached=sorted(set(range(size)) - reached))
+
+
+def cyclic_degrees(size: int, edges: list) -> list:
+    """The least product of degrees along a path of edges between each pair (Floyd–Warshall)."""
+    best = [[1 if i == j else None for j in range(size)] for i in range(size)]
+    for edge in edges:
+        i, j = edge["source"], edge["target"]
+        if i != j and (best[i][j] is None or edge["ell"] < best[i][j]):
+            best[i][j] = edge["ell"]
+    for k in range(size):
+        for i in range(size):
+            for j in range(size):
+                if best[i][k] is not None and best[k][j] is not None:
+                    through = best[i][k] * best[k][j]
+                    if best[i][j] is None or through < best[i][j]:
+                        best[i][j] = through
+    return best
+
+
+def check_degrees(claimed: list, computed: list) -> None:
+    """The claimed degree matrix is the one computed from the verified edges."""
+    for i, row in enumerate(claimed):
+        for j, value in enumerate(row):
+            if value != computed[i][j]:
+                raise Rejection("degree matrix", "a claimed cyclic degree differs from the one the edges give",
+                                row=i, column=j, claimed=value, computed=computed[i][j])
