@@ -15,7 +15,8 @@ from math import gcd
 from certify.curves import Curve, format_rational, inverse_change
 from certify.pari import pari
 from certify.verifier import theorems
-from certify.verifier.arith import derivative, is_prime, poly_eval_mod, prime_factors, trim
+from certify.verifier.arith import is_prime, prime_factors, simple_roots_mod, squarefree_part, trim
+from certify.verifier.limits import MAX_HINT_PRIME, MAX_SQUAREFREE_DEGREE
 from certify.verifier.curves import (add, change_point, division_by_ell_polynomial, multiple, negate,
                                      points_with_x, torsion_polynomial)
 from certify.verifier.torsion import FORMAT, RELIES_ON
@@ -160,18 +161,21 @@ def rational_roots(polynomial: list) -> list:
 
 
 def hint_prime(polynomial: list) -> int:
-    """The least odd prime p ∤ lc(f) at which every root of f mod p is simple: the verifier's hint."""
+    """The least odd prime from which the verifier's ``rational_roots`` finds all rational roots:
+    p ∤ lc(f) and every root of f in F_p simple, f the polynomial without its factors x (or, for small
+    degree only, its squarefree part)."""
     f = trim(polynomial)
     while f and f[0] == 0:
         f = f[1:]
-    df = derivative(f)
+    candidates = [f] + ([squarefree_part(f)] if len(f) - 1 <= MAX_SQUAREFREE_DEGREE else [])
     p = 3
-    while True:
-        if f[-1] % p and all(poly_eval_mod(df, r, p) for r in range(p) if poly_eval_mod(f, r, p) == 0):
+    while p <= MAX_HINT_PRIME:
+        if any(g[-1] % p and simple_roots_mod(g, p) is not None for g in candidates):
             return p
         p += 2
         while not is_prime(p):
             p += 2
+    raise ArithmeticError(f"no hint prime up to {MAX_HINT_PRIME}")
 
 
 def _order(model, P) -> int:

@@ -8,7 +8,7 @@ from fractions import Fraction
 from math import gcd, isqrt
 
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_DIGITS, MAX_HINT_PRIME
+from certify.verifier.limits import MAX_DIGITS, MAX_HINT_PRIME, MAX_SQUAREFREE_DEGREE
 
 _INTEGER = re.compile(r"-?(0|[1-9][0-9]*)")
 _RATIONAL = re.compile(r"-?(0|[1-9][0-9]*)(/[1-9][0-9]*)?")
@@ -126,14 +126,50 @@ def clear_denominators(f: list) -> list:
     return trim([int(Fraction(a) * common) for a in f])
 
 
+def _remainder(f: list, g: list) -> list:
+    """The remainder of f modulo g ≠ 0 over Q (coefficients Fractions)."""
+    f = [Fraction(c) for c in f]
+    while len(f) >= len(g):
+        factor, shift = f[-1] / g[-1], len(f) - len(g)
+        f = trim([c - factor * g[i - shift] if i >= shift else c for i, c in enumerate(f)])
+    return f
+
+
+def _quotient(f: list, g: list) -> list:
+    """The exact quotient f/g over Q."""
+    f, quotient = [Fraction(c) for c in f], [Fraction(0)] * (len(f) - len(g) + 1)
+    while len(f) >= len(g):
+        factor, shift = f[-1] / g[-1], len(f) - len(g)
+        quotient[shift] = factor
+        f = trim([c - factor * g[i - shift] if i >= shift else c for i, c in enumerate(f)])
+    return quotient
+
+
+def squarefree_part(f: list) -> list:
+    """f / gcd(f, f′) as an integer polynomial: the same roots, each simple (Euclid's algorithm over Q)."""
+    a, b = trim(f), derivative(f)
+    while b:
+        a, b = b, _remainder(a, b)
+    return f if len(a) <= 1 else clear_denominators(_quotient(f, a))
+
+
+def simple_roots_mod(f: list, p: int):
+    """The roots of f in F_p if each of them is a simple root, else None."""
+    df = derivative(f)
+    roots = [r for r in range(p) if poly_eval_mod(f, r, p) == 0]
+    return roots if all(poly_eval_mod(df, r, p) for r in roots) else None
+
+
 def rational_roots(f: list, p: int, what: str) -> list:
     """All rational roots of the non-zero integer polynomial f, found exactly from the prime hint p.
 
-    Statement used (Hensel's lemma; rational root theorem): if p ∤ lc(f) and every root of f mod p is
+    Statement used (Hensel's lemma; rational root theorem): if p ∤ lc(f) and every root of f in F_p is
     simple, each rational root a/b (lowest terms, b | lc(f), a | f(0) when f(0) ≠ 0) is p-integral and
     is the p-adic lift of exactly one root r of f mod p. Lifting r to precision M > 2·|lc(f)·f(0)|
     determines the integer lc(f)·a/b as the symmetric residue of lc(f)·r mod M; that candidate is then
-    checked by exact evaluation. Hence the returned list is complete, without any search.
+    checked by exact evaluation. Hence the returned list is complete, without any search. When a root
+    mod p is multiple and deg f ≤ MAX_SQUAREFREE_DEGREE, f is replaced by its squarefree part, which
+    has the same roots.
     """
     f = trim(f)
     if not f:
@@ -147,15 +183,15 @@ def rational_roots(f: list, p: int, what: str) -> list:
         return roots
     if not (2 < p <= MAX_HINT_PRIME and is_prime(p)):
         raise Rejection("rational roots", f"{what}: the hint is not an odd prime up to {MAX_HINT_PRIME}", p=p)
-    lead, constant, df = f[-1], f[0], derivative(f)
-    if lead % p == 0:
-        raise Rejection("rational roots", f"{what}: the hint prime divides the leading coefficient", p=p)
-    bound = 2 * abs(lead * constant)
-    for r in range(p):
-        if poly_eval_mod(f, r, p):
-            continue
-        if poly_eval_mod(df, r, p) == 0:
-            raise Rejection("rational roots", f"{what}: a root modulo the hint prime is not simple", p=p, root=r)
+    residues = simple_roots_mod(f, p) if f[-1] % p else None
+    if residues is None and len(f) - 1 <= MAX_SQUAREFREE_DEGREE:
+        f = squarefree_part(f)
+        residues = simple_roots_mod(f, p) if f[-1] % p else None
+    if residues is None:
+        raise Rejection("rational roots", f"{what}: the hint prime divides the leading coefficient or "
+                        "a root modulo it is not simple", p=p)
+    lead, bound, df = f[-1], 2 * abs(f[-1] * f[0]), derivative(f)
+    for r in residues:
         modulus = p
         while modulus <= bound:
             modulus *= modulus

@@ -20,6 +20,9 @@ MAX_HINT_PRIME = 100_000
 MAX_PRIMES = 64
 """Most primes with point counts in one certificate."""
 
+MAX_SQUAREFREE_DEGREE = 12
+"""Largest degree of a polynomial whose squarefree part the verifier computes (by Euclid over Q)."""
+
 MAX_ELL = 13
 """Largest prime ℓ for which division polynomials (degree about ℓ²) are built."""
 
