@@ -80,8 +80,8 @@ def _multiply(f: list, g: list) -> list:
 def _substitute_affine(h: list, scale: Fraction, shift: Fraction) -> list:
     """h(scale·x + shift)/scale^deg h, monic again: the kernel polynomial after x_short = scale·x + shift
     (x_short = 36x + 3b2 takes a model to its short model y² = x³ − 27c4x − 54c6)."""
-    out = [Fraction(0)]
-    for c in reversed(h):
+    out = [Fraction(h[-1])]
+    for c in reversed(h[:-1]):
         out = _multiply(out, [shift, scale])
         out[0] += c
     lead = out[-1]
