@@ -45,7 +45,8 @@ def test_sutherland_exception_seven():
     assert witness(cert, 0, 7)["method"] == "x0-roots" and witness(cert, 0, 7)["roots"] == []
 
 
-@pytest.mark.parametrize("ell", [11, 17, 19, 37, 43, 67, 163])
+@pytest.mark.parametrize("ell", [11, 17, 19, 37, 43, 67,
+                                 pytest.param(163, marks=pytest.mark.table)])  # 163: minutes, by hand
 def test_each_large_degree(ell):
     """Each j of the finite lists (Mazur 1978; Kenku; the notes' lists, checked here against cypari2's
     ellisomat) carries exactly one rational ℓ-isogeny, certified by a kernel found from the codomain."""
