@@ -361,39 +361,38 @@ def velu_codomain(a, ell: int, h: list) -> tuple:
 
 
 def x_map(a, ell: int, h: list) -> tuple:
-    """(N, D) with X = N/D the x-coordinate of the Vélu isogeny with kernel polynomial h.
+    """(N, D), integer polynomials, with X = N/D the x-coordinate of the Vélu isogeny with kernel
+    polynomial h from the integral model a.
 
     With F = 4x³ + b2x² + 2b4x + b6, t_Q = F′(x_Q)/2 and u_Q = F(x_Q) for ℓ odd, Vélu's
     X = x + Σ (t_Q/(x − x_Q) + u_Q/(x − x_Q)²) sums by Taylor expansion to
-    X = ((ℓx − 2s1)h² − F′h′h/2 + F(h′² − hh″))/h², s1 the sum of the roots of h;
-    for ℓ = 2 the one term is t_Q/(x − x0) with t_Q = F′(x0)/4 (Vélu 1971; Kohel 1996, §2.4)."""
-    f = [Fraction(c) for c in curve_cubic(a)]
+    X = ((ℓx − 2s1)h² − F′h′h/2 + F(h′² − hh″))/h², s1 the sum of the roots of h; writing h = H/c with H
+    integral, N and D are 2c³ times numerator and denominator. For ℓ = 2 the one term is t_Q/(x − x0)
+    with t_Q = F′(x0)/4 (Vélu 1971; Kohel 1996, §2.4)."""
+    f = [int(c) for c in curve_cubic(a)]
     df = derivative(f)
+    common = 1
+    for c in h:
+        common = common * c.denominator // gcd(common, c.denominator)
+    H = [int(c * common) for c in h]
     if ell == 2:
-        return poly_add(poly_mul([0, 1], h), [sum(c * (-h[0]) ** i for i, c in enumerate(df)) / 4]), list(h)
-    dh = derivative(h)
-    s1 = -h[-2]
-    h2 = poly_mul(h, h)
-    numerator = poly_sub(poly_mul([-2 * s1, ell], h2), poly_scale(Fraction(1, 2), poly_mul(df, poly_mul(dh, h))))
-    numerator = poly_add(numerator, poly_mul(f, poly_sub(poly_mul(dh, dh), poly_mul(h, derivative(dh)))))
-    return numerator, h2
+        x0 = -h[0]
+        slope = sum(c * x0 ** i for i, c in enumerate(df))
+        scale = 4 * slope.denominator
+        return (poly_add(poly_scale(scale, poly_mul([0, 1], H)), [int(slope * slope.denominator) * common]),
+                poly_scale(scale, H))
+    dH = derivative(H)
+    H2 = poly_mul(H, H)
+    numerator = poly_add(poly_mul([4 * H[-2], 2 * common * ell], H2), poly_scale(-common, poly_mul(df, poly_mul(dH, H))))
+    numerator = poly_add(numerator, poly_scale(2 * common, poly_mul(f, poly_sub(poly_mul(dH, dH),
+                                                                                  poly_mul(H, derivative(dH))))))
+    return numerator, poly_scale(2 * common, H2)
 
 
 def curve_cubic(a) -> list:
     """F = 4x³ + b2x² + 2b4x + b6 with η² = F(x) for η = 2y + a1x + a3 (Silverman III.1)."""
     b2, b4, b6, _ = b_invariants(a)
     return [b6, 2 * b4, b2, 4]
-
-
-def integral_pair(n: list, d: list) -> tuple:
-    """(λN, λD) with λ the least positive rational making both integer polynomials."""
-    common = 1
-    for c in n + d:
-        common = common * c.denominator // gcd(common, c.denominator)
-    content = 0
-    for c in n + d:
-        content = gcd(content, int(c * common))
-    return [int(c * common) // content for c in n], [int(c * common) // content for c in d]
 
 
 def coprime_mod(f: list, g: list, p: int) -> bool:
@@ -428,7 +427,7 @@ def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> N
     deg(N/D) = ℓ when N and D are coprime, and its kernel is O and the points with D(x) = 0."""
     if discriminant(codomain) == 0:
         raise Rejection("kernel polynomial", f"{where}: the Vélu codomain is singular")
-    n, d = integral_pair(*x_map(source, ell, h))
+    n, d = x_map(source, ell, h)
     if len(n) - 1 != ell or len(d) - 1 != ell - 1:
         raise Rejection("kernel polynomial", f"{where}: the x-map does not have degree ℓ", ell=ell)
     p = next(q for q in range(10 ** 6 + 3, 10 ** 7, 2) if is_prime(q) and n[-1] % q and d[-1] % q)
