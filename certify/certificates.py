@@ -42,6 +42,19 @@ def stamp(cert: dict) -> dict:
     return {**cert, "metadata": metadata}
 
 
+def certifiers() -> dict:
+    """{kind: certify function} for each kind of certificate this installation can write ('torsion', and
+    'isogeny-class' once ``certify.isogeny`` is installed)."""
+    from certify.torsion import certify_torsion
+
+    kinds = {"torsion": certify_torsion}
+    try:
+        from certify.isogeny.certificate import certify_isogeny_class
+    except ImportError:
+        return kinds
+    return {**kinds, "isogeny-class": certify_isogeny_class}
+
+
 class NotAccepted(Exception):
     """A certificate given to a command that builds on certificates is not accepted by the verifier."""
 

@@ -1,4 +1,5 @@
-"""The command line: ``certify torsion``, ``isogeny-class``, ``verify``, ``table``, ``bundle``, ``demo``.
+"""The command line: ``certify torsion``, ``isogeny-class``, ``verify``, ``table``, ``bundle``, ``batch``,
+``demo``.
 
 Input errors (malformed, singular or over-large curves, certificates the verifier does not accept
 where a command builds on them) exit with status 2 and one line on stderr.
@@ -72,6 +73,21 @@ def bundle_command(sources: list, output: str) -> int:
     return 0
 
 
+def batch_command(args) -> int:
+    """Certify a whole table into a directory or SQLite store."""
+    from certify.batch import BatchInputError, run_batch
+    from certify.certificates import certifiers
+
+    if args.only and args.only not in certifiers():
+        return fail(f"this installation cannot write {args.only} certificates")
+    if args.workers is not None and args.workers < 1 or args.timeout is not None and args.timeout <= 0:
+        return fail("--workers and --timeout must be positive")
+    try:
+        return run_batch(args.file, args.output, args.workers, args.only, args.cluster, args.timeout)
+    except BatchInputError as error:
+        return fail(str(error))
+
+
 def parser() -> argparse.ArgumentParser:
     """The argument parser of every subcommand but ``verify`` (which the verifier's own parser reads)."""
     top = argparse.ArgumentParser(prog="certify", description=(
@@ -94,6 +110,13 @@ def parser() -> argparse.ArgumentParser:
     bundle = commands.add_parser("bundle", help="pack accepted certificates and a manifest into one file")
     bundle.add_argument("sources", nargs="+", metavar="CERT")
     bundle.add_argument("-o", "--output", metavar="FILE", required=True)
+    batch = commands.add_parser("batch", help="certify every curve of a file into a directory or .sqlite store")
+    batch.add_argument("file", metavar="FILE", help="one CURVE per line, optionally followed by a label")
+    batch.add_argument("-o", "--output", metavar="OUT", required=True, help="a directory, or a file ending in .sqlite")
+    batch.add_argument("--workers", type=int, metavar="N", help="local processes (default: all cores)")
+    batch.add_argument("--only", choices=("torsion", "isogeny-class"), help="write only this kind of certificate")
+    batch.add_argument("--cluster", metavar="ADDRESS", help="run on the Dask scheduler at ADDRESS (tcp://host:port)")
+    batch.add_argument("--timeout", type=float, metavar="S", help="give up on a certificate after S seconds (local runs)")
     demo = commands.add_parser("demo", help="certify and verify the curves of the demo appendix")
     demo.add_argument("--out", metavar="DIR", default=None, help="keep the certificates, bundle and tables in DIR")
     return top
@@ -112,6 +135,8 @@ def main(argv=None) -> int:
         return table_command(args.sources, args.form, args.document, args.output)
     if args.command == "bundle":
         return bundle_command(args.sources, args.output)
+    if args.command == "batch":
+        return batch_command(args)
     from certify.demo import run_demo
 
     return run_demo(args.out)

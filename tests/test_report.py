@@ -71,3 +71,18 @@ def test_quiet_one_line_each_jsonl_exact_keys_and_standalone_same_report(tmp_pat
     without_time = lambda text: re.sub(r"\d+\.\d{3} s", "", text)
     assert without_time(run("-m", "certify.verifier", *paths).stdout) == \
         without_time(run("-m", "certify", "verify", *paths).stdout)
+
+
+def test_isogeny_class_report_lists_the_curves_and_the_degree_matrix(tmp_path):
+    """The class of [0,2,0,-15,0] against cypari2's ellisomat: every member's equation and every degree."""
+    from certify.isogeny.certificate import certify_isogeny_class
+    from certify.pari import pari
+
+    cert = certify_isogeny_class(parse_curve("[0,2,0,-15,0]"))
+    text = run("-m", "certify.verifier", write(tmp_path, "class.json", cert)).stdout
+    curves, matrix = pari.ellisomat(pari.ellinit([0, 2, 0, -15, 0]))
+    assert f"consists of {len(curves)} curve(s)" in text
+    for i, a in enumerate(cert["claim"]["curves"]):
+        assert f"E{i + 1}: {Curve(parse_curve('[' + ','.join(a) + ']')).equation()}" in text
+    rows = [line.split() for line in text.splitlines() if re.fullmatch(r"\s+[\d ]+", line)]
+    assert sorted(sorted(map(int, row)) for row in rows) == sorted(sorted(int(d) for d in row) for row in matrix)

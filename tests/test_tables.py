@@ -10,6 +10,7 @@ import pytest
 from certify.certificates import to_json
 from certify.curves import Curve, parse_curve
 from certify.pari import pari
+from certify.isogeny.certificate import certify_isogeny_class
 from certify.torsion import certify_torsion
 from certify.verifier.digest import digest, short
 
@@ -25,10 +26,15 @@ def certificates(tmp_path_factory):
     folder = tmp_path_factory.mktemp("certs")
     out = []
     for i, curve in enumerate(CURVES):
-        cert = certify_torsion(parse_curve(curve))
-        (folder / f"c{i}.json").write_text(to_json(cert))
-        out.append((str(folder / f"c{i}.json"), cert))
+        for kind, build in (("torsion", certify_torsion), ("class", certify_isogeny_class)):
+            cert = build(parse_curve(curve))
+            (folder / f"c{i}.{kind}.json").write_text(to_json(cert))
+            out.append((str(folder / f"c{i}.{kind}.json"), cert))
     return out
+
+
+def torsion_certificates(certificates):
+    return [cert for _, cert in certificates if cert["format"] == "certify-torsion"]
 
 
 def reference_invariants(cert) -> list:
@@ -36,21 +42,30 @@ def reference_invariants(cert) -> list:
     return sorted(int(n) for n in pari.elltors(pari.ellinit(cert["curve"]))[1])
 
 
+def reference_class(cert) -> tuple:
+    """cypari2's ellisomat: the class size and the sorted degrees in the row of the curve itself."""
+    curves, matrix = pari.ellisomat(pari.ellinit(cert["curve"]))
+    return str(len(curves)), "[" + ",".join(map(str, sorted(int(d) for d in matrix[0]))) + "]"
+
+
 def test_csv_rows_match_the_certificates_and_the_reference_library(certificates):
     run = table(*(path for path, _ in certificates), "--format", "csv")
     assert run.returncode == 0, run.stderr
     rows = list(csv.DictReader(io.StringIO(run.stdout)))
-    assert len(rows) == len(certificates)
-    for row, (_, cert) in zip(rows, certificates):
+    assert len(rows) == len(CURVES)
+    by_curve = {tuple(cert["curve"]): cert for _, cert in certificates if cert["format"] != "certify-torsion"}
+    for row, cert in zip(rows, torsion_certificates(certificates)):
         assert row["curve"] == Curve(parse_curve("[" + ",".join(cert["curve"]) + "]")).equation()
         assert row["torsion_invariants"] == "[" + ",".join(map(str, reference_invariants(cert))) + "]"
+        assert (row["class_size"], row["degrees"]) == reference_class(cert)
         assert row["torsion_digest"] == digest(cert)
+        assert row["class_digest"] == digest(by_curve[tuple(cert["curve"])])
 
 
 def test_markdown_has_one_row_per_curve_with_short_digests(certificates):
     lines = table(*(path for path, _ in certificates), "--format", "markdown").stdout.splitlines()
-    assert len(lines) == 2 + len(certificates)
-    for line, (_, cert) in zip(lines[2:], certificates):
+    assert len(lines) == 2 + len(CURVES)
+    for line, cert in zip(lines[2:], torsion_certificates(certificates)):
         assert f"`{short(digest(cert))}`" in line
         assert (" × ".join(f"Z/{n}Z" for n in reference_invariants(cert)) or "0") in line
 
@@ -71,7 +86,8 @@ def test_latex_document_compiles(certificates, tmp_path):
 
 
 def test_a_rejected_certificate_is_not_tabulated(certificates, tmp_path):
-    bad = dict(certificates[0][1], claim={"invariants": ["8"], "generators": [certificates[0][1]["claim"]["generators"][1]]})
+    first = certificates[0][1]
+    bad = dict(first, claim={"invariants": ["8"], "generators": [first["claim"]["generators"][1]]})
     (tmp_path / "bad.json").write_text(to_json(bad))
     run = table(certificates[1][0], str(tmp_path / "bad.json"))
     assert run.returncode == 2 and run.stdout == ""

@@ -15,10 +15,9 @@ import time
 from importlib import resources
 
 from certify.bundle import build_bundle
-from certify.certificates import NotAccepted, accepted_certificates, stamp, to_json, write_atomically
+from certify.certificates import NotAccepted, accepted_certificates, certifiers, stamp, to_json, write_atomically
 from certify.curves import parse_curve
 from certify.tables import render
-from certify.torsion import certify_torsion
 
 BUNDLE = "appendix.json"
 TABLES = {"latex": "appendix-table.tex", "markdown": "appendix-table.md"}
@@ -30,23 +29,13 @@ def appendix_curves() -> list[str]:
     return [line.strip() for line in text.splitlines() if line.strip() and not line.startswith("#")]
 
 
-def certifiers() -> list:
-    """(kind, certify function) for each kind of certificate this installation can write."""
-    kinds = [("torsion", certify_torsion)]
-    try:
-        from certify.isogeny.certificate import certify_isogeny_class
-    except ImportError:
-        return kinds
-    return kinds + [("isogeny-class", certify_isogeny_class)]
-
-
 def run_demo(out: str | None) -> int:
     """Certify each curve, write and verify its certificates, bundle them, write the tables, print one."""
     folder = out or tempfile.mkdtemp(prefix="certify-demo-")
     os.makedirs(folder, exist_ok=True)
     paths, started = [], time.perf_counter()
     for index, line in enumerate(appendix_curves(), 1):
-        for kind, build in certifiers():
+        for kind, build in certifiers().items():
             path = os.path.join(folder, f"appendix-curve-{index}.{kind}.json")
             write_atomically(path, to_json(stamp(build(parse_curve(line)))))
             paths.append(path)

@@ -15,7 +15,7 @@ import time
 from certify.verifier import verify
 from certify.verifier.digest import NotCanonical, claim_digest, digest
 from certify.verifier.errors import Rejection
-from certify.verifier.report import describe_claim, one_line, report
+from certify.verifier.report import claim_lines, describe_claim, one_line, report
 from certify.verifier.sources import Unreadable, check_recorded, documents, tasks
 
 JSONL_KEYS = ("file", "accepted", "reason")
@@ -24,7 +24,7 @@ JSONL_KEYS = ("file", "accepted", "reason")
 def check(name: str, document, recorded: dict) -> dict:
     """The verdict on one certificate: {"file", "accepted", "reason", "readable"} and, for a readable
     one, "seconds", "digest", "curve", "relies_on" (keys) and, when accepted, "checks" (counts) and
-    "claim digest"."""
+    "claim digest", "claim lines" (the claim in full)."""
     if isinstance(document, Unreadable):
         return {"file": name, "accepted": False, "reason": f"unreadable: {document}", "readable": False}
     started = time.perf_counter()
@@ -34,6 +34,7 @@ def check(name: str, document, recorded: dict) -> dict:
         result["reason"] = describe_claim(document)
         result["digest"] = check_recorded(document, recorded, result["reason"])
         result["claim digest"] = claim_digest(document)
+        result["claim lines"] = claim_lines(document)
         result["accepted"] = True
     except Rejection as rejection:
         result["reason"] = str(rejection)

@@ -54,17 +54,17 @@ def digest(document: dict) -> str:
 
 def claim_digest(document: dict) -> str:
     """The digest of the claim alone, stated on the integral model the evidence names (for certify's
-    certificates the reduced minimal model), whatever model the curve was given in and whatever
-    evidence proves it: certificates for isomorphic models of one curve share it. Meaningful for an
-    accepted certificate only."""
+    certificates the reduced minimal model; an isogeny-class claim is already stated on reduced
+    minimal models), whatever model the curve was given in and whatever evidence proves it:
+    certificates for isomorphic models of one curve share it. Meaningful for an accepted certificate only."""
     claim = document["claim"]
     if document["format"] == "certify-torsion":
         model = document["evidence"]["integral_model"]
         change = [Fraction(v) for v in model["change"]]
         points = [[str(c) for c in change_point(tuple(Fraction(c) for c in P), change)] for P in claim["generators"]]
         content = {"model": model["curve"], "claim": {"invariants": claim["invariants"], "generators": points}}
-    else:
-        content = {"curve": document["curve"], "claim": claim}
+    else:  # an isogeny class is stated on reduced minimal models, the first that of the curve
+        content = {"claim": claim}
     return digest({"format": document["format"], "version": document["version"], **content})
 
 

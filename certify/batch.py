@@ -1,0 +1,221 @@
+"""``certify batch FILE -o OUT [--workers N] [--only KIND] [--cluster ADDRESS] [--timeout S]``.
+
+FILE has one curve per line in the CURVE syntax; blank lines and everything from ``#`` on are
+skipped. An optional label follows the curve: after the closing ``]`` of a coefficient list, or
+after a tab for an equation. Each curve gets both certificates (or the one ``--only`` names), kept
+in OUT (see ``certify.store``) under the curve's coefficients as given, with the label in the
+certificate's ``metadata``. A rerun skips what OUT holds and retries the rest, failures included.
+The certificates are computed in N local processes (default: all cores) or, with ``--cluster``, by
+the workers of a Dask distributed scheduler; only the main process writes to OUT.
+"""
+from __future__ import annotations
+
+import os
+import sys
+import time
+from collections import Counter
+from dataclasses import dataclass
+from itertools import islice
+
+from certify.certificates import certifiers, stamp, to_json
+from certify.curves import CurveInputError, format_rational, parse_curve
+from certify.store import open_store
+from certify.verifier.digest import digest
+
+KINDS = ("torsion", "isogeny-class")
+
+
+class BatchInputError(Exception):
+    """The batch file cannot be read at all."""
+
+
+@dataclass(frozen=True)
+class Task:
+    """One certificate to make: the curve '[a1,a2,a3,a4,a6]', its kind, its label, the time limit."""
+    key: str
+    kind: str
+    label: str
+    timeout: float | None
+
+
+def split_line(line: str) -> tuple[str, str] | None:
+    """(CURVE text, label) of a batch line, or None for a blank or comment line."""
+    line = line.split("#", 1)[0].strip()
+    if not line:
+        return None
+    if line.startswith("["):
+        end = line.find("]") + 1 or len(line)
+        return line[:end], line[end:].strip()
+    curve, _, label = line.partition("\t")
+    return curve.strip(), label.strip()
+
+
+def curve_key(a) -> str:
+    """The curve as stored: '[a1,a2,a3,a4,a6]' with the coefficients as given, in lowest terms."""
+    return "[" + ",".join(format_rational(c) for c in a) + "]"
+
+
+def read_batch(path: str):
+    """[(line number, curve key or None, label, error or None)] for the curve lines of the file."""
+    try:
+        with open(path, encoding="utf-8") as handle:
+            lines = handle.read().splitlines()
+    except (OSError, UnicodeDecodeError) as error:
+        raise BatchInputError(f"cannot read {path}: {getattr(error, 'strerror', None) or error}")
+    out = []
+    for number, line in enumerate(lines, 1):
+        parts = split_line(line)
+        if parts is None:
+            continue
+        try:
+            out.append((number, curve_key(parse_curve(parts[0])), parts[1], None))
+        except CurveInputError as error:
+            out.append((number, None, parts[1], f"line {number}: {parts[0][:60]!r}: {error}"))
+    return out
+
+
+def certify_one(task: Task) -> dict:
+    """{"task", "document" (JSON text), "digest"} for one certificate, or {"task", "error"}: any failure of
+    the certifier, or the time limit (local processes only: the limit is a SIGALRM, which only a
+    process's main thread receives), becomes a one-line reason instead of stopping the batch."""
+    from cysignals.alarm import alarm, cancel_alarm
+    from cysignals.signals import AlarmInterrupt
+
+    import threading
+
+    timed = task.timeout is not None and threading.current_thread() is threading.main_thread()
+    try:
+        if timed:
+            alarm(task.timeout)
+        cert = stamp(certifiers()[task.kind](parse_curve(task.key)))
+        if timed:
+            cancel_alarm()
+    except AlarmInterrupt:
+        return {"task": task, "error": f"timed out after {task.timeout:g} s"}
+    except Exception as error:  # a certifier bug on one curve must not stop a table of thousands
+        if timed:
+            cancel_alarm()
+        return {"task": task, "error": f"{type(error).__name__}: {str(error).splitlines()[0][:200] if str(error) else ''}"}
+    if task.label:
+        cert["metadata"]["label"] = task.label
+    return {"task": task, "document": to_json(cert), "digest": digest(cert)}
+
+
+def _quiet_worker() -> None:
+    """Local workers leave Ctrl-C to the main process, which stops them."""
+    import signal
+
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+
+
+def run_local(tasks, workers: int):
+    """The results of certify_one over the tasks, in completion order, from ``workers`` processes."""
+    if workers == 1:
+        yield from map(certify_one, tasks)
+        return
+    import multiprocessing
+
+    pool = multiprocessing.get_context("spawn").Pool(workers, initializer=_quiet_worker)
+    try:
+        yield from pool.imap_unordered(certify_one, tasks, chunksize=2)
+        pool.close()
+    finally:
+        pool.terminate()
+        pool.join()
+
+
+def run_cluster(tasks, address: str):
+    """The results of certify_one over the tasks, from the workers of the Dask scheduler at ``address``;
+    at most four tasks per worker thread are in flight, so a table of millions is never all submitted."""
+    from distributed import Client, as_completed
+
+    tasks = iter(tasks)
+    with Client(address) as client:
+        window = 4 * max(1, sum(client.nthreads().values()))
+        pending = {client.submit(certify_one, task, pure=False): task for task in islice(tasks, window)}
+        running = as_completed(list(pending))
+        for future in running:
+            task = pending.pop(future)
+            try:
+                yield future.result()
+            except Exception as error:  # a worker lost while running the task
+                yield {"task": task, "error": f"cluster: {type(error).__name__}: {error}"}
+            for task in islice(tasks, 1):
+                future = client.submit(certify_one, task, pure=False)
+                pending[future] = task
+                running.add(future)
+
+
+class Progress:
+    """Curves done, rate and time left: a bar redrawn on a terminal, a log line every 10 s otherwise."""
+
+    def __init__(self, total: int, done: int, stream=sys.stderr):
+        self.total, self.done, self.stream = total, done, stream
+        self.start, self.first, self.logged = time.monotonic(), done, 0.0
+        self.terminal = stream.isatty()
+
+    def line(self) -> str:
+        elapsed = time.monotonic() - self.start
+        rate = (self.done - self.first) / elapsed if elapsed > 0 else 0.0
+        left = f"{(self.total - self.done) / rate:.0f} s left" if rate > 0 else "time left unknown"
+        return f"{self.done}/{self.total} curves, {rate:.1f} curves/s, {left}"
+
+    def advance(self) -> None:
+        self.done += 1
+        now = time.monotonic()
+        if self.terminal:
+            filled = int(30 * self.done / max(self.total, 1))
+            self.stream.write(f"\r[{'#' * filled}{'.' * (30 - filled)}] {self.line()}   ")
+            self.stream.flush()
+        elif now - self.logged >= 10 or self.done == self.total:
+            self.logged = now
+            print(f"batch: {self.line()}", file=self.stream, flush=True)
+
+    def close(self) -> None:
+        if self.terminal:
+            self.stream.write("\n")
+
+
+def run_batch(path: str, out: str, workers: int | None = None, only: str | None = None,
+              cluster: str | None = None, timeout: float | None = None) -> int:
+    """Certify the table into OUT; returns the exit status (0 all done, 1 some failed, 130 interrupted)."""
+    kinds = [only] if only else [kind for kind in KINDS if kind in certifiers()]
+    lines = read_batch(path)
+    store = open_store(out)
+    tasks, failures, labels = [], [], {}
+    for _, key, label, error in lines:
+        if error:
+            failures.append(error)
+        elif key not in labels:
+            labels[key] = label
+            tasks += [Task(key, kind, label, timeout) for kind in kinds if not store.has(key, kind)]
+    open_kinds = Counter(task.key for task in tasks)
+    progress = Progress(len(labels), len(labels) - len(open_kinds))
+    written = 0
+    results = run_cluster(tasks, cluster) if cluster else run_local(tasks, workers or os.cpu_count() or 1)
+    try:
+        for result in results:
+            task = result["task"]
+            if "error" in result:
+                store.fail(task.key, task.kind, task.label, result["error"])
+                failures.append(f"{task.key}{' (' + task.label + ')' if task.label else ''} {task.kind}: {result['error']}")
+            else:
+                store.put(task.key, task.kind, task.label, result["document"], result["digest"])
+                written += 1
+            open_kinds[task.key] -= 1
+            if open_kinds[task.key] == 0:
+                progress.advance()
+    except KeyboardInterrupt:
+        progress.close()
+        store.close()
+        print(f"batch: interrupted; {written} certificates written to {out} are complete, rerun to continue",
+              file=sys.stderr)
+        return 130
+    progress.close()
+    store.close()
+    skipped = len(labels) * len(kinds) - len(tasks)
+    print(f"batch: {len(labels)} curves, {written} certificates written, {skipped} already in {out}, "
+          f"{len(failures)} failures", file=sys.stderr)
+    for failure in failures:
+        print(f"  failed: {failure}", file=sys.stderr)
+    return 1 if failures else 0
