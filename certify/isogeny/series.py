@@ -10,6 +10,7 @@ All of this runs modulo word-sized primes, and the coefficients of h are recover
 remainder theorem and rational reconstruction; the candidate is then checked exactly (its Vélu codomain here, the isogeny identity by the caller).
 """
 from fractions import Fraction
+from math import isqrt
 
 from certify.pari import pari
 from certify.verifier.isogeny import velu_codomain
@@ -82,7 +83,7 @@ def monic_square_root(square: list, p: int):
 
 def reconstruct(residue: int, modulus: int):
     """The fraction u/v with |u|, v ≤ √(modulus/2) congruent to residue, if any (Wang 1981)."""
-    bound = int((modulus // 2) ** 0.5) if modulus < 2 ** 1000 else _isqrt(modulus // 2)
+    bound = isqrt(modulus // 2)
     r0, r1, s0, s1 = modulus, residue % modulus, 0, 1
     while r1 > bound:
         q = r0 // r1
@@ -90,12 +91,6 @@ def reconstruct(residue: int, modulus: int):
     if s1 == 0 or abs(s1) > bound:
         return None
     return Fraction(r1, s1)
-
-
-def _isqrt(n: int) -> int:
-    from math import isqrt
-
-    return isqrt(n)
 
 
 def kernel_from_codomain(A: Fraction, B: Fraction, A2: Fraction, B2: Fraction, ell: int):
