@@ -486,17 +486,17 @@ def swap_evidence_entry(cert: dict, other: dict, rnd: random.Random) -> dict:
 
 def foreign_kernel(cert: dict, other: dict, rnd: random.Random) -> dict:
     """An edge's kernel polynomial replaced by the kernel of an edge of the same degree from another class
-    (or from another curve of this class)."""
-    edges = cert["evidence"]["edges"]
-    if not edges:
-        return swap_evidence_field(cert, other, rnd)
-    edge = rnd.choice(edges)
-    donors = [e for e in other["evidence"]["edges"] + edges if e["degree"] == edge["degree"] and e["kernel"] != edge["kernel"]]
-    edge["kernel"] = copy.deepcopy(rnd.choice(donors)["kernel"]) if donors else ["0"] * (len(edge["kernel"]) - 1) + ["1"]
+    or another curve of this class (or, when there is none, by its own with the constant term moved).
+    The certificate must have an edge."""
+    edge = rnd.choice(cert["evidence"]["edges"])
+    donors = [e["kernel"] for e in other["evidence"]["edges"] + cert["evidence"]["edges"]
+              if e["degree"] == edge["degree"] and e["kernel"] != edge["kernel"]]
+    edge["kernel"] = copy.deepcopy(rnd.choice(donors)) if donors else [str(Fraction(edge["kernel"][0]) + 1)] + edge["kernel"][1:]
     return cert
 
 
-TWISTS = (-1, 2, -2, 3, -3, 5, -7)
+TWISTS = (-4, 8, -8, 12, -3, 5, -7, 13)
+"""Fundamental discriminants for elltwist."""
 
 
 def twist_curve(cert: dict, rnd: random.Random) -> dict:
@@ -530,11 +530,12 @@ def odd_primes_dividing(n: int) -> list:
 
 
 def model_discriminant(model) -> int:
-    return int(pari_curve(model).disc)
+    return int(pari_curve(model).disc())
 
 
 def card_mod_p(model, p: int) -> int:
-    """#E(F_p) by cypari2 (ellcard), or, at a prime of bad reduction, p + 1 − a_p of the singular cubic."""
+    """p + 1 − a_p by cypari2's ellap: #E(F_p) at a good prime, the count of the reduction's smooth part
+    plus one at a bad one (a plausible-looking number either way)."""
     return p + 1 - int(pari.ellap(pari_curve(model), p))
 
 
@@ -739,14 +740,18 @@ def reorder_entries(cert: dict, rnd: random.Random) -> dict:
 
 
 def duplicate_class_curve(cert: dict, rnd: random.Random) -> dict:
-    """Isogeny: one curve listed twice, consistently — the copy with its own hint, witnesses, degrees and
-    copies of its edges — so only the distinctness of the listed models can catch it."""
-    size = len(cert["claim"]["curves"])
+    """Isogeny: one curve listed twice, consistently — the copy with its own minimality hint, witnesses,
+    degree row and column (degree 1 to its original) and copies of its outgoing edges — so that only the
+    distinctness of the listed models can catch it."""
+    claim, evidence = cert["claim"], cert["evidence"]
+    size = len(claim["curves"])
     k = rnd.randrange(size)
-    cert = renumber_isogeny(cert, list(range(size)) + [k])
-    copies = [dict(w, curve=str(size)) for w in cert["evidence"]["completeness"] if w["curve"] == str(k)]
-    cert["evidence"]["completeness"] += copies
-    cert["evidence"]["edges"] += [dict(e, source=str(size)) for e in cert["evidence"]["edges"] if e["source"] == str(k)]
+    claim["curves"].append(copy.deepcopy(claim["curves"][k]))
+    claim["degrees"] = [row + [row[k]] for row in claim["degrees"]]
+    claim["degrees"].append(claim["degrees"][k][:size] + ["1"])
+    evidence["minimality"].append(copy.deepcopy(evidence["minimality"][k]))
+    evidence["completeness"] += [dict(w, curve=str(size)) for w in evidence["completeness"] if w["curve"] == str(k)]
+    evidence["edges"] += [dict(e, source=str(size)) for e in evidence["edges"] if e["source"] == str(k)]
     return cert
 
 
