@@ -5,7 +5,8 @@ from fractions import Fraction
 from certify.curves import Curve, format_rational
 from certify.isogeny.enumerate import close_class
 from certify.pari import pari
-from certify.verifier.isogeny import FORMAT, THEOREMS, cyclic_degrees
+from certify.verifier import theorems
+from certify.verifier.isogeny import FORMAT, RELIES_ON, cyclic_degrees
 
 
 def strings(values) -> list:
@@ -53,6 +54,5 @@ def certify_isogeny_class(a, given=None) -> dict:
                        "change": strings(c)} for s, t, ell, h, c in found.edges],
             "completeness": [witness_entry(i, ell, w) for (i, ell), w in sorted(found.witnesses.items())],
         },
-        "relies_on": [{"key": key, "statement": statement, "reference": reference}
-                      for key, (statement, reference) in THEOREMS.items()],
+        "relies_on": theorems.entries(RELIES_ON),
     }

@@ -9,15 +9,10 @@ from certify.verifier.certificate import check_depth, field
 
 def checkers() -> dict:
     """format name → (accepted versions, check function)."""
-    from certify.verifier import torsion
+    from certify.verifier import isogeny, torsion
 
-    table = {torsion.FORMAT: (torsion.VERSIONS, torsion.check_torsion_certificate)}
-    try:
-        from certify.verifier import isogeny
-    except ImportError:
-        return table
-    table[isogeny.FORMAT] = (isogeny.VERSIONS, isogeny.check_isogeny_certificate)
-    return table
+    return {torsion.FORMAT: (torsion.VERSIONS, torsion.check_torsion_certificate),
+            isogeny.FORMAT: (isogeny.VERSIONS, isogeny.check_isogeny_certificate)}
 
 
 def verify(cert) -> dict:

@@ -32,3 +32,6 @@ polynomials solved from a prime hint. Checked from the stated hints before any c
 
 MAX_POLYNOMIAL_SIZE = 2_000_000
 """Largest degree × coefficient digits of a polynomial to be built (estimated from the model first)."""
+
+MAX_KERNEL_SIZE = 100_000
+"""Largest degree × coefficient digits of a kernel polynomial (a genuine 163-isogeny's is about 34,000)."""

@@ -69,18 +69,9 @@ def class_facts(cert: dict) -> tuple:
     return len(claim["curves"]), sorted(int(d) for d in claim["degrees"][0])
 
 
-def known_theorems() -> dict:
-    """key → (statement, reference) for every published result some check of the verifier uses."""
-    try:
-        from certify.verifier import isogeny
-    except ImportError:
-        return dict(THEOREMS)
-    return {**getattr(isogeny, "THEOREMS", {}), **THEOREMS}
-
-
 def assumptions(keys) -> list:
     """Report lines for the theorems a certificate relies on: statement, then reference, indented."""
-    lines, known = [], known_theorems()
+    lines, known = [], THEOREMS
     for key in keys:
         if key not in known:
             lines.append(f"{key}: not a result this verifier knows; none of its checks uses it")
