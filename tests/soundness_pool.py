@@ -792,11 +792,13 @@ def respell_number(cert: dict, rnd: random.Random) -> tuple:
 
 
 def oversized_number(cert: dict, rnd: random.Random, digits: int) -> tuple:
-    """(certificate, path): one number replaced by one of ``digits`` digits (numerator or denominator)."""
+    """(certificate, path, spelling): one number replaced by one of ``digits`` digits (the integer, its
+    negative, or as numerator or denominator of a fraction)."""
     path = rnd.choice(number_paths(cert))
     huge = "1" + "0" * (digits - 2) + "7"
-    put_at(cert, path, rnd.choice((huge, "-" + huge, f"1/{huge}", f"{huge}/3")))
-    return cert, path
+    spelling = rnd.choice((huge, "-" + huge, f"1/{huge}", f"{huge}/3"))
+    put_at(cert, path, spelling)
+    return cert, path, spelling
 
 
 # --- random input ----------------------------------------------------------------------------------------
