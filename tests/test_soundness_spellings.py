@@ -49,12 +49,12 @@ def unit_denominator_paths(cert: dict) -> list:
 
 @pytest.mark.xfail(strict=True, reason="bug: parse_rational accepts 'n/1' (and '0/1') although its docstring and "
                    "the README require d > 1 for the form n/d, so two texts with different digests say the same")
-@pytest.mark.parametrize("kind", ["torsion", "isogeny"])
-def test_denominator_one_is_rejected(kind):
+def test_denominator_one_is_rejected_in_an_isogeny_certificate():
     """'5/1' for 5 (Fraction('5/1') == 5): the canonical form n/d needs d > 1 (certify.verifier.arith's
     parse_rational docstring), so this spelling must be refused like '2/4'. Minimal input: the first
-    curve coefficient of a pool certificate written as '1/1' or '0/1'."""
-    cert = fresh(kind, 0)
+    curve coefficient of the isogeny certificate of [0,-1,1,-10,-20] written '0/1'. (The torsion side of
+    the same bug is tests/test_torsion_hostile.py's test_denominator_one_is_not_a_canonical_spelling.)"""
+    cert = fresh("isogeny", 0)
     path = unit_denominator_paths(cert)[0]
     put_at(cert, path, f"{get_at(cert, path)}/1")
     assert_rejected(cert)
