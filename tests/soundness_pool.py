@@ -203,7 +203,7 @@ def ci_and_long(ci: int, **strategies):
                 inner()
                 tried = {key: TALLY[key] - start[key] for key in ("inputs", "accepted", "rejected")}
                 print(f"{body.__name__}{suffix}: {tried['inputs']} inputs tried, {tried['accepted']} accepted "
-                      f"(each confirmed by cypari2), {tried['rejected']} rejected")
+                      f"(each checked by the test's oracle), {tried['rejected']} rejected")
             test.__name__ = f"{body.__name__}{suffix}"
             test.__doc__ = body.__doc__
             return test
