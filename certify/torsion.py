@@ -9,14 +9,13 @@ on the way, with a prime hint for each polynomial, are the evidence. Point count
 """
 from __future__ import annotations
 
-from fractions import Fraction
 from math import gcd
 
 from certify.curves import Curve, format_rational, inverse_change
 from certify.pari import pari
 from certify.verifier import theorems
-from certify.verifier.arith import is_prime, prime_factors, simple_roots_mod, squarefree_part, trim
-from certify.verifier.limits import MAX_HINT_PRIME, MAX_SQUAREFREE_DEGREE
+from certify.roots import hint_prime, rational_roots
+from certify.verifier.arith import prime_factors
 from certify.verifier.curves import (add, change_point, division_by_ell_polynomial, multiple, negate,
                                      points_with_x, torsion_polynomial)
 from certify.verifier.torsion import FORMAT, RELIES_ON
@@ -151,31 +150,6 @@ def structure(model, group: list) -> tuple[list, list]:
         return [n2], [second]
     first = next(P for P in by_size if orders[P] == n1 and len(closure(model, [P, second])) == len(group))
     return [n1, n2], [first, second]
-
-
-def rational_roots(polynomial: list) -> list:
-    """The rational roots of an integer polynomial, sorted (PARI factors it)."""
-    if len(trim(polynomial)) <= 1:
-        return []
-    return sorted(Fraction(str(r)) for r in pari.nfroots(None, pari.Polrev(polynomial)))
-
-
-def hint_prime(polynomial: list) -> int:
-    """The least odd prime from which the verifier's ``rational_roots`` finds all rational roots:
-    p ∤ lc(f) and every root of f in F_p simple, f the polynomial without its factors x (or, for small
-    degree only, its squarefree part)."""
-    f = trim(polynomial)
-    while f and f[0] == 0:
-        f = f[1:]
-    candidates = [f] + ([squarefree_part(f)] if len(f) - 1 <= MAX_SQUAREFREE_DEGREE else [])
-    p = 3
-    while p <= MAX_HINT_PRIME:
-        if any(g[-1] % p and simple_roots_mod(g, p) is not None for g in candidates):
-            return p
-        p += 2
-        while not is_prime(p):
-            p += 2
-    raise ArithmeticError(f"no hint prime up to {MAX_HINT_PRIME}")
 
 
 def _order(model, P) -> int:

@@ -7,9 +7,10 @@ from dataclasses import dataclass, field
 
 from certify.curves import Curve
 from certify.isogeny.kernels import kernel_by_codomain, kernels_by_factoring, linear_kernels
-from certify.isogeny.modular import frobenius_witnesses, roots_with_hint, x0_polynomial
+from certify.isogeny.modular import frobenius_witnesses, x0_polynomial
+from certify.roots import roots_with_hint
 from certify.verifier.curves import division_polynomials, two_division_polynomial
-from certify.verifier.isogeny import FINITE_J, MAZUR_PRIMES, X0_NUMERATORS, velu_codomain
+from certify.verifier.isogeny import FINITE_J, MAZUR_PRIMES, velu_codomain
 
 FROBENIUS_ELLS = (3, 5, 7, 13)
 """The ℓ for which a Frobenius witness is tried first; for the ℓ of the finite j-lists, the list is the

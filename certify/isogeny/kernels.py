@@ -13,7 +13,7 @@ from certify.curves import Curve
 from certify.isogeny.modular import codomain_candidates
 from certify.isogeny.series import kernel_from_codomain
 from certify.pari import pari
-from certify.verifier.curves import division_polynomials, two_division_polynomial
+from certify.verifier.curves import division_polynomials
 from certify.verifier.errors import Rejection
 from certify.verifier.isogeny import check_isogeny_identity, velu_codomain
 

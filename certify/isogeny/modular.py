@@ -8,7 +8,7 @@ from itertools import combinations
 
 from certify.curves import Curve
 from certify.pari import pari
-from certify.verifier.arith import poly_eval_mod, derivative, poly_scale, poly_sub, rational_roots
+from certify.verifier.arith import poly_scale, poly_sub
 from certify.verifier.isogeny import FINITE_J, X0_NUMERATORS
 
 FROBENIUS_PRIME_BOUND = 1000
@@ -40,27 +40,6 @@ def frobenius_witnesses(model: Curve, ells) -> dict:
                 if value and pow(value, (ell - 1) // 2, ell) == ell - 1:
                     found[ell] = p
     return found
-
-
-def root_hint(polynomial: list) -> int:
-    """The least odd prime p not dividing the leading coefficient at which every root of the
-    polynomial mod p is simple: the hint for the exact rational-root routine."""
-    polynomial = [c for c in polynomial]
-    while polynomial[0] == 0:
-        polynomial = polynomial[1:]
-    slope = derivative(polynomial)
-    p = 2
-    while True:
-        p = int(pari.nextprime(p + 1))
-        if polynomial[-1] % p and all(poly_eval_mod(slope, r, p) for r in range(p)
-                                      if poly_eval_mod(polynomial, r, p) == 0):
-            return p
-
-
-def roots_with_hint(polynomial: list) -> tuple:
-    """(rational roots, hint prime) of a non-zero integer polynomial."""
-    p = root_hint(polynomial)
-    return rational_roots(polynomial, p, "certifier"), p
 
 
 def x0_polynomial(ell: int, j: Fraction) -> list:
