@@ -31,7 +31,7 @@ def parse_rational(text, what: str) -> Fraction:
     if max(len(numerator), len(denominator)) > MAX_DIGITS:
         raise Rejection("number size", f"{what} has more than {MAX_DIGITS} digits", digits=len(text))
     value = Fraction(int(numerator), int(denominator or "1"))
-    if denominator and (value.denominator != int(denominator)):
+    if denominator and (denominator == "1" or value.denominator != int(denominator)):
         raise Rejection("number syntax", f"{what} is not in lowest terms with denominator > 1", value=text)
     return value
 
@@ -188,8 +188,9 @@ def rational_roots(f: list, p: int, what: str) -> list:
         f = squarefree_part(f)
         residues = simple_roots_mod(f, p) if f[-1] % p else None
     if residues is None:
-        raise Rejection("rational roots", f"{what}: the hint prime divides the leading coefficient or "
-                        "a root modulo it is not simple", p=p)
+        raise Rejection("rational roots", f"{what}: the hint prime divides the leading coefficient or a root "
+                        f"modulo it is not simple (squarefree parts are taken only up to degree "
+                        f"{MAX_SQUAREFREE_DEGREE})", p=p, degree=len(f) - 1)
     lead, bound, df = f[-1], 2 * abs(f[-1] * f[0]), derivative(f)
     for r in residues:
         modulus = p

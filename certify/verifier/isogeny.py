@@ -85,9 +85,9 @@ def check_isogeny_certificate(cert: dict) -> dict:
     for i, model in enumerate(curves):
         check_reduced_minimal(model, hints[i], f"claim.curves[{i}]")
     check_distinct(curves)
+    kernels = distinct_kernels(edges)
     for edge in edges:
         check_edge(curves, edge)
-    kernels = distinct_kernels(edges)
     j = [j_invariant(model) for model in curves]
     for (i, ell), witness in witnesses.items():
         check_witness(curves[i], j[i], i, ell, witness, kernels.get((i, ell), 0))
