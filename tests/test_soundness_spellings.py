@@ -47,14 +47,58 @@ def unit_denominator_paths(cert: dict) -> list:
             and "degrees" not in p and not (p[0] == "evidence" and p[1] == "integral_model" and p[2] == "curve")]
 
 
-@pytest.mark.xfail(strict=True, reason="bug: parse_rational accepts 'n/1' (and '0/1') although its docstring and "
-                   "the README require d > 1 for the form n/d, so two texts with different digests say the same")
 def test_denominator_one_is_rejected_in_an_isogeny_certificate():
     """'5/1' for 5 (Fraction('5/1') == 5): the canonical form n/d needs d > 1 (certify.verifier.arith's
     parse_rational docstring), so this spelling must be refused like '2/4'. Minimal input: the first
     curve coefficient of the isogeny certificate of [0,-1,1,-10,-20] written '0/1'. (The torsion side of
-    the same bug is tests/test_torsion_hostile.py's test_denominator_one_is_not_a_canonical_spelling.)"""
+    the same bug is tests/test_torsion_hostile.py's test_denominator_one_is_not_a_canonical_spelling.)
+    Found by this module and fixed in 77660eb; kept as a regression test."""
     cert = fresh("isogeny", 0)
     path = unit_denominator_paths(cert)[0]
     put_at(cert, path, f"{get_at(cert, path)}/1")
-    assert_rejected(cert)
+    assert assert_rejected(cert).check == "number syntax"
+
+
+VERSION_SPELLINGS = ["2", "0", "1.0", "01", "v1", "", " 1", "1 ", "+1", "１", "1\n", "10"]
+"""Versions a future or a careless writer might put: other versions and other spellings of "1"."""
+
+
+@pytest.mark.parametrize("kind", ["torsion", "isogeny"])
+@pytest.mark.parametrize("version", VERSION_SPELLINGS)
+def test_unknown_format_version_is_rejected_with_the_version_named(kind, version):
+    """Issue 6, item 1: a certificate of a known format but an unknown version (evidence is versioned with
+    the format, so version-1 checks prove nothing about another version's evidence) is refused by the
+    'format' check, which names the version it found."""
+    cert = fresh(kind, 0)
+    cert["version"] = version
+    rejection = assert_rejected(cert)
+    assert rejection.check == "format" and rejection.values.get("version") == version
+    assert repr(version) in str(rejection)
+
+
+@pytest.mark.parametrize("version", [1, 1.0, None, ["1"]])
+def test_version_that_is_not_a_string_is_rejected(version):
+    """A version given as a JSON number, null or a list: refused as a structure error, never compared
+    loosely with "1"."""
+    cert = fresh("torsion", 0)
+    cert["version"] = version
+    assert assert_rejected(cert).check == "structure"
+
+
+@ci_and_long(30, kind=st.sampled_from(("torsion", "isogeny")), version=st.text(max_size=8).filter(lambda v: v != "1"))
+def test_random_versions_are_rejected_with_the_version_named(kind, version):
+    """Any other version string, named in the rejection (its repr, so control characters stay visible)."""
+    cert = fresh(kind, 0)
+    cert["version"] = version
+    rejection = assert_rejected(cert)
+    assert rejection.check == "format" and repr(version)[:150] in str(rejection)
+
+
+def test_unknown_bundle_version_is_named():
+    """A bundle of an unknown version is unreadable as a whole, with its version named (the verifier's
+    sources.bundle_members)."""
+    from certify.verifier import sources
+
+    bundle = {"format": "certify-bundle", "version": "7", "manifest": {"count": "0", "members": []}, "members": []}
+    ((_, verdict, _),) = sources.bundle_members("appendix.json", bundle)
+    assert isinstance(verdict, sources.Unreadable) and "'7'" in str(verdict)
