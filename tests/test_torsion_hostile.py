@@ -317,9 +317,9 @@ def test_edited_evidence(cert):
 
 
 def test_denominator_one_is_not_a_canonical_spelling():
-    """FAILS UNTIL FIXED (verifier bug, see the hand-over report): parse_rational documents 'n/d with
-    d > 1', but accepts '-3/1' for -3, so one number has two accepted spellings (and the accepted
-    certificate then fails the schema, whose rational pattern requires d ≥ 2)."""
+    """'n/d' needs d > 1: '1/1' would be a second spelling of 1, and a certificate using it would
+    fail the schema, whose rational pattern requires d ≥ 2. (Regression: the verifier once
+    accepted it; the hostile spelling test below found it.)"""
     cert = copy.deepcopy(pool()[0])
     cert["evidence"]["integral_model"]["change"][0] = "1/1"
     try:
