@@ -59,13 +59,13 @@ def reference_invariants(a) -> list:
     return [int(n) for n in reversed(pari.elltors(pari_curve(a))[1])]
 
 
-def certified(a) -> dict:
-    """certify_torsion(a), failing the test (instead of hanging the suite) if it runs for HANG_SECONDS."""
+def certified(a, seconds: int = HANG_SECONDS) -> dict:
+    """certify_torsion(a), failing the test (instead of hanging the suite) if it runs for ``seconds``."""
     try:
-        alarm(HANG_SECONDS)
+        alarm(seconds)
         return certify_torsion(tuple(Fraction(c) for c in a))
     except AlarmInterrupt:
-        pytest.fail(f"certify_torsion did not finish within {HANG_SECONDS} s on {[str(c) for c in a]}")
+        pytest.fail(f"certify_torsion did not finish within {seconds} s on {[str(c) for c in a]}")
     finally:
         cancel_alarm()
 
