@@ -10,8 +10,11 @@ the workers of a Dask distributed scheduler; only the main process writes to OUT
 """
 from __future__ import annotations
 
+import json
 import os
+import subprocess
 import sys
+import threading
 import time
 from collections import Counter
 from dataclasses import dataclass
@@ -81,8 +84,6 @@ def certify_one(task: Task) -> dict:
     from cysignals.alarm import alarm, cancel_alarm
     from cysignals.signals import AlarmInterrupt
 
-    import threading
-
     timed = task.timeout is not None and threading.current_thread() is threading.main_thread()
     try:
         if timed:
@@ -124,6 +125,37 @@ def run_local(tasks, workers: int):
         pool.join()
 
 
+class ChildCertifier:
+    """certify_one in a private child process (``python -m certify.batch``), talking JSON lines over
+    pipes. A Dask worker runs tasks in threads, but PARI may only be used from the thread that
+    started it; each worker thread hands its tasks to a child of its own, whose main thread runs
+    them (so ``--timeout`` applies there too)."""
+
+    local = threading.local()
+
+    @classmethod
+    def run(cls, task: Task) -> dict:
+        """certify_one(task), computed in this thread's child (started on first use)."""
+        child = getattr(cls.local, "child", None)
+        if child is None or child.poll() is not None:
+            child = cls.local.child = subprocess.Popen([sys.executable, "-m", "certify.batch"], text=True,
+                                                       stdin=subprocess.PIPE, stdout=subprocess.PIPE)
+        child.stdin.write(json.dumps(task.__dict__) + "\n")
+        child.stdin.flush()
+        answer = child.stdout.readline()
+        if not answer:
+            return {"task": task, "error": f"the certifying process died (exit status {child.wait()})"}
+        return {"task": task, **json.loads(answer)}
+
+
+def serve() -> None:
+    """The child's loop: one task as JSON per line in, one result as JSON per line out."""
+    for line in sys.stdin:
+        result = certify_one(Task(**json.loads(line)))
+        del result["task"]
+        print(json.dumps(result), flush=True)
+
+
 def run_cluster(tasks, address: str):
     """The results of certify_one over the tasks, from the workers of the Dask scheduler at ``address``;
     at most four tasks per worker thread are in flight, so a table of millions is never all submitted."""
@@ -132,7 +164,7 @@ def run_cluster(tasks, address: str):
     tasks = iter(tasks)
     with Client(address) as client:
         window = 4 * max(1, sum(client.nthreads().values()))
-        pending = {client.submit(certify_one, task, pure=False): task for task in islice(tasks, window)}
+        pending = {client.submit(ChildCertifier.run, task, pure=False): task for task in islice(tasks, window)}
         running = as_completed(list(pending))
         for future in running:
             task = pending.pop(future)
@@ -141,9 +173,15 @@ def run_cluster(tasks, address: str):
             except Exception as error:  # a worker lost while running the task
                 yield {"task": task, "error": f"cluster: {type(error).__name__}: {error}"}
             for task in islice(tasks, 1):
-                future = client.submit(certify_one, task, pure=False)
+                future = client.submit(ChildCertifier.run, task, pure=False)
                 pending[future] = task
                 running.add(future)
+
+
+def certify_all(tasks, workers: int | None, cluster: str | None):
+    """The results of certify_one over the tasks: on the Dask scheduler ``cluster`` if given, else in
+    ``workers`` local processes (default: one per core)."""
+    return run_cluster(tasks, cluster) if cluster else run_local(tasks, workers or os.cpu_count() or 1)
 
 
 class Progress:
@@ -192,7 +230,7 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
     open_kinds = Counter(task.key for task in tasks)
     progress = Progress(len(labels), len(labels) - len(open_kinds))
     written = 0
-    results = run_cluster(tasks, cluster) if cluster else run_local(tasks, workers or os.cpu_count() or 1)
+    results = certify_all(tasks, workers, cluster)
     try:
         for result in results:
             task = result["task"]
@@ -219,3 +257,7 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
     for failure in failures:
         print(f"  failed: {failure}", file=sys.stderr)
     return 1 if failures else 0
+
+
+if __name__ == "__main__":
+    serve()

@@ -3,6 +3,7 @@ from __future__ import annotations
 
 import json
 import os
+import sys
 import tempfile
 
 
@@ -25,6 +26,14 @@ def write_atomically(path: str, text: str) -> None:
     except BaseException:
         os.unlink(temporary)
         raise
+
+
+def emit(text: str, output) -> None:
+    """Write ``text`` to the file ``output`` atomically, or to stdout when ``output`` is None."""
+    if output is None:
+        sys.stdout.write(text)
+    else:
+        write_atomically(output, text)
 
 
 def stamp(cert: dict) -> dict:

@@ -1,5 +1,5 @@
 """The command line: ``certify torsion``, ``isogeny-class``, ``verify``, ``table``, ``bundle``, ``batch``,
-``demo``.
+``audit``, ``demo``.
 
 Input errors (malformed, singular or over-large curves, certificates the verifier does not accept
 where a command builds on them) exit with status 2 and one line on stderr.
@@ -10,7 +10,7 @@ import argparse
 import sys
 
 from certify.curves import Curve, CurveInputError, parse_curve
-from certify.certificates import NotAccepted, accepted_certificates, stamp, to_json, write_atomically
+from certify.certificates import NotAccepted, accepted_certificates, emit, stamp, to_json, write_atomically
 from certify.verifier.digest import digest
 from certify.verifier.report import describe_claim
 
@@ -19,14 +19,6 @@ def fail(message: str) -> int:
     """Print one line on stderr; the exit status of bad input."""
     print(f"certify: {message}", file=sys.stderr)
     return 2
-
-
-def emit(text: str, output: str | None) -> None:
-    """Write ``text`` to the file ``output`` atomically, or to stdout."""
-    if output is None:
-        sys.stdout.write(text)
-    else:
-        write_atomically(output, text)
 
 
 def certify_command(kind: str, text: str, output: str | None) -> int:
@@ -80,12 +72,28 @@ def batch_command(args) -> int:
 
     if args.only and args.only not in certifiers():
         return fail(f"this installation cannot write {args.only} certificates")
-    if args.workers is not None and args.workers < 1 or args.timeout is not None and args.timeout <= 0:
-        return fail("--workers and --timeout must be positive")
     try:
         return run_batch(args.file, args.output, args.workers, args.only, args.cluster, args.timeout)
     except BatchInputError as error:
         return fail(str(error))
+
+
+def audit_command(args) -> int:
+    """Certify the truth behind each claim of another program and report agreement field by field."""
+    from certify.audit import AuditInputError, run_audit
+
+    form = args.form or ("jsonl" if args.output and args.output.endswith(".jsonl") else "csv")
+    try:
+        return run_audit(args.claims, args.output, form, args.certificates, args.workers, args.cluster, args.timeout)
+    except AuditInputError as error:
+        return fail(str(error))
+
+
+def add_run_options(command) -> None:
+    """--workers, --cluster and --timeout, shared by batch and audit."""
+    command.add_argument("--workers", type=int, metavar="N", help="local processes (default: all cores)")
+    command.add_argument("--cluster", metavar="ADDRESS", help="run on the Dask scheduler at ADDRESS (tcp://host:port)")
+    command.add_argument("--timeout", type=float, metavar="S", help="give up on a certificate after S seconds")
 
 
 def parser() -> argparse.ArgumentParser:
@@ -113,10 +121,16 @@ def parser() -> argparse.ArgumentParser:
     batch = commands.add_parser("batch", help="certify every curve of a file into a directory or .sqlite store")
     batch.add_argument("file", metavar="FILE", help="one CURVE per line, optionally followed by a label")
     batch.add_argument("-o", "--output", metavar="OUT", required=True, help="a directory, or a file ending in .sqlite")
-    batch.add_argument("--workers", type=int, metavar="N", help="local processes (default: all cores)")
     batch.add_argument("--only", choices=("torsion", "isogeny-class"), help="write only this kind of certificate")
-    batch.add_argument("--cluster", metavar="ADDRESS", help="run on the Dask scheduler at ADDRESS (tcp://host:port)")
-    batch.add_argument("--timeout", type=float, metavar="S", help="give up on a certificate after S seconds (local runs)")
+    add_run_options(batch)
+    audit = commands.add_parser("audit", help="check another program's torsion and isogeny claims (CSV or JSONL)")
+    audit.add_argument("claims", metavar="CLAIMS", help="columns: curve, and any of label, torsion, class_size, "
+                       "degrees, class_curves (see the README)")
+    audit.add_argument("-o", "--output", metavar="FILE", help="write the report here (default: stdout)")
+    audit.add_argument("--format", choices=("csv", "jsonl"), dest="form", help="default: csv, or jsonl for -o *.jsonl")
+    audit.add_argument("--certificates", metavar="DIR", default="audit-certificates",
+                       help="where the certificates proving each disagreement go (default: audit-certificates)")
+    add_run_options(audit)
     demo = commands.add_parser("demo", help="certify and verify the curves of the demo appendix")
     demo.add_argument("--out", metavar="DIR", default=None, help="keep the certificates, bundle and tables in DIR")
     return top
@@ -129,6 +143,9 @@ def main(argv=None) -> int:
 
         return verify_main(argv[1:])
     args = parser().parse_args(argv)
+    if getattr(args, "workers", None) is not None and args.workers < 1 or getattr(args, "timeout", None) is not None \
+            and args.timeout <= 0:
+        return fail("--workers and --timeout must be positive")
     if args.command in ("torsion", "isogeny-class"):
         return certify_command(args.command, args.curve, args.output)
     if args.command == "table":
@@ -137,6 +154,8 @@ def main(argv=None) -> int:
         return bundle_command(args.sources, args.output)
     if args.command == "batch":
         return batch_command(args)
+    if args.command == "audit":
+        return audit_command(args)
     from certify.demo import run_demo
 
     return run_demo(args.out)

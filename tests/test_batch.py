@@ -1,0 +1,160 @@
+"""certify batch: both stores, labels, failures, resuming, interrupts, timeouts, verify on stores, Dask."""
+import json
+import os
+import signal
+import sqlite3
+import subprocess
+import sys
+import time
+from pathlib import Path
+
+import pytest
+
+from certify.pari import pari
+
+TABLE = Path(__file__).resolve().parent / "data" / "conductor_lt_1000.txt"
+
+
+def cremona_curves(count: int, start: int = 0) -> list:
+    """(coefficients, 'conductor-index') of curves of Cremona's table (the fixture's header gives the format)."""
+    rows = [line.split() for line in TABLE.read_text().splitlines() if not line.startswith("#")]
+    return [([int(c) for c in row[2:7]], f"{row[0]}-{i}") for i, row in enumerate(rows[start:start + count], start)]
+
+
+def batch_file(tmp_path, curves, extra=()) -> str:
+    lines = ["# a comment", ""] + ["[" + ",".join(map(str, a)) + "]  " + label for a, label in curves] + list(extra)
+    path = tmp_path / "curves.txt"
+    path.write_text("\n".join(lines) + "\n")
+    return str(path)
+
+
+def certify(*args, **kwargs):
+    return subprocess.run([sys.executable, "-m", "certify", *args], capture_output=True, text=True, **kwargs)
+
+
+def verified(source, *options):
+    run = certify("verify", "--jsonl", *options, source)
+    return run.returncode, [json.loads(line) for line in run.stdout.splitlines()]
+
+
+def store_rows(path):
+    with sqlite3.connect(path) as connection:
+        return connection.execute("SELECT curve, kind, label, document, digest FROM certificates").fetchall()
+
+
+def test_directory_store_certifies_verifies_and_resumes(tmp_path):
+    """Twelve curves of Cremona's table, both kinds: 24 accepted files whose torsion orders agree with
+    cypari2's elltors; a rerun writes nothing; a deleted file is remade, alone."""
+    curves = cremona_curves(12)
+    source, out = batch_file(tmp_path, curves), tmp_path / "out"
+    run = certify("batch", source, "-o", str(out), "--workers", "2")
+    assert run.returncode == 0, run.stderr
+    files = sorted(out.glob("*.json"))
+    assert len(files) == 24 and not list(out.glob(".certify-*"))
+    code, rows = verified(str(out), "--workers", "2")
+    assert code == 0 and len(rows) == 24 and all(row["accepted"] for row in rows)
+    for a, label in curves:
+        cert = json.loads((out / (",".join(map(str, a)) + ".torsion.json")).read_text())
+        assert cert["metadata"]["label"] == label
+        order = 1
+        for n in cert["claim"]["invariants"]:
+            order *= int(n)
+        assert order == int(pari.elltors(pari.ellinit(a))[0])  # cypari2 as reference library
+    again = certify("batch", source, "-o", str(out))
+    assert again.returncode == 0 and "0 certificates written, 24 already" in again.stderr
+    files[3].unlink()
+    again = certify("batch", source, "-o", str(out), "--workers", "1")
+    assert "1 certificates written, 23 already" in again.stderr and files[3].exists()
+
+
+def test_sqlite_store_rows_labels_failures_and_retries(tmp_path):
+    """A malformed line is a failure with its line number; a time limit too short for anything makes
+    every certificate fail and land in the failures table; the rerun without it retries them all."""
+    curves = cremona_curves(5, start=40)
+    source, store = batch_file(tmp_path, curves, ["[1,x] broken"]), str(tmp_path / "table.sqlite")
+    run = certify("batch", source, "-o", store, "--only", "torsion", "--timeout", "0.0001", "--workers", "1")
+    assert run.returncode == 1
+    assert "line 8" in run.stderr and "not a rational number" in run.stderr and "timed out" in run.stderr
+    with sqlite3.connect(store) as connection:
+        assert connection.execute("SELECT count(*) FROM failures").fetchone()[0] == 5
+    run = certify("batch", source, "-o", store, "--only", "torsion")
+    assert run.returncode == 1 and "5 certificates written" in run.stderr  # the broken line still fails
+    rows = store_rows(store)
+    assert sorted((curve, label) for curve, _, label, _, _ in rows) == \
+        sorted(("[" + ",".join(map(str, a)) + "]", label) for a, label in curves)
+    assert {kind for _, kind, _, _, _ in rows} == {"torsion"}
+    with sqlite3.connect(store) as connection:
+        assert connection.execute("SELECT count(*) FROM failures").fetchone()[0] == 0
+    code, verdicts = verified(store)
+    assert code == 0 and len(verdicts) == 5
+    assert all(row["file"].startswith(store + "#[") and row["file"].endswith("/torsion") for row in verdicts)
+
+
+def test_verify_rejects_a_store_row_whose_recorded_digest_is_wrong(tmp_path):
+    store = str(tmp_path / "t.sqlite")
+    assert certify("batch", batch_file(tmp_path, cremona_curves(2)), "-o", store, "--only", "torsion").returncode == 0
+    with sqlite3.connect(store) as connection:
+        connection.execute("UPDATE certificates SET digest = 'sha256:00' WHERE rowid = (SELECT min(rowid) FROM certificates)")
+    code, rows = verified(store)
+    assert code == 1 and sorted(row["accepted"] for row in rows) == [False, True]
+    assert next(row for row in rows if not row["accepted"])["reason"].startswith("recorded digest")
+
+
+def test_interrupt_leaves_only_complete_certificates_and_the_rerun_finishes(tmp_path):
+    """Ctrl-C in the middle of a run: exit 130, no temporary file, every file present is accepted."""
+    curves = cremona_curves(300, start=1000)
+    source, out = batch_file(tmp_path, curves), tmp_path / "out"
+    process = subprocess.Popen([sys.executable, "-m", "certify", "batch", source, "-o", str(out), "--workers", "2",
+                                "--only", "torsion"], stderr=subprocess.PIPE, text=True)
+    deadline = time.monotonic() + 60
+    while len(list(out.glob("*.json"))) < 5 and time.monotonic() < deadline:
+        time.sleep(0.05)
+    process.send_signal(signal.SIGINT)
+    _, stderr = process.communicate(timeout=60)
+    assert process.returncode == 130, stderr
+    assert "interrupted" in stderr and not list(out.glob(".certify-*"))
+    written = len(list(out.glob("*.json")))
+    assert 5 <= written < 300
+    code, rows = verified(str(out))
+    assert code == 0 and len(rows) == written
+    rerun = certify("batch", source, "-o", str(out), "--only", "torsion")
+    assert rerun.returncode == 0 and f"{300 - written} certificates written, {written} already" in rerun.stderr
+
+
+def test_progress_bar_on_a_terminal_and_log_lines_otherwise():
+    from certify.batch import Progress
+
+    class Terminal:
+        def __init__(self):
+            self.text = ""
+
+        def isatty(self):
+            return True
+
+        def write(self, text):
+            self.text += text
+
+        def flush(self):
+            pass
+
+    terminal = Terminal()
+    progress = Progress(4, 1, terminal)
+    progress.advance()
+    progress.close()
+    assert terminal.text.startswith("\r[" + "#" * 15 + "." * 15 + "] 2/4 curves") and "left" in terminal.text
+
+
+def test_cluster_run_on_a_local_dask_cluster(tmp_path):
+    """--cluster against a LocalCluster started here (the real distributed package): the same store as a
+    local run, certificate for certificate."""
+    distributed = pytest.importorskip("distributed", reason="install the test extra: pip install '.[test]'")
+    curves = cremona_curves(6, start=200)
+    source = batch_file(tmp_path, curves)
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, dashboard_address=None) as cluster:
+        run = certify("batch", source, "-o", str(tmp_path / "cluster.sqlite"), "--cluster", cluster.scheduler_address)
+    assert run.returncode == 0, run.stderr
+    assert certify("batch", source, "-o", str(tmp_path / "local.sqlite"), "--workers", "2").returncode == 0
+    digests = lambda name: sorted((c, k, d) for c, k, _, _, d in store_rows(str(tmp_path / name)))
+    assert digests("cluster.sqlite") == digests("local.sqlite") and len(digests("local.sqlite")) == 12
+    code, rows = verified(str(tmp_path / "cluster.sqlite"), "--workers", "2")
+    assert code == 0 and len(rows) == 12
