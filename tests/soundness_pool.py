@@ -369,10 +369,17 @@ def claim_wrong_generators(cert: dict, rnd: random.Random) -> dict:
     if others:
         replacement = point_strings(rnd.choice(others))
     else:
-        replacement = non_torsion_point(E, rnd) or [cert["claim"]["generators"][i][0],
-                                                    str(Fraction(cert["claim"]["generators"][i][1]) + 1)]
+        replacement = non_torsion_point(E, rnd) or off_curve_point(E, cert["claim"]["generators"][i])
     cert["claim"]["generators"][i] = replacement
     return cert
+
+
+def off_curve_point(E, point: list) -> list:
+    """The point with its y-coordinate moved until it is off the curve (cypari2's ellisoncurve)."""
+    x, y = Fraction(point[0]), Fraction(point[1])
+    while pari.ellisoncurve(E, [pari(str(x)), pari(str(y))]):
+        y += Fraction(1, 7)
+    return [str(x), str(y)]
 
 
 def non_torsion_point(E, rnd: random.Random):
