@@ -31,7 +31,10 @@ def certify_command(kind: str, text: str, output: str | None) -> int:
         from certify.torsion import certify_torsion as build
     else:
         from certify.isogeny.certificate import certify_isogeny_class as build
-    cert = stamp(build(a))
+    try:
+        cert = stamp(build(a))
+    except CurveInputError as error:
+        return fail(str(error))
     emit(to_json(cert), output)
     if output is not None:
         print(f"{Curve(a).equation()}: {describe_claim(cert)} — written to {output}", file=sys.stderr)
@@ -69,12 +72,13 @@ def batch_command(args) -> int:
     """Certify a whole table into a directory or SQLite store."""
     from certify.batch import BatchInputError, run_batch
     from certify.certificates import certifiers
+    from certify.store import StoreError
 
     if args.only and args.only not in certifiers():
         return fail(f"this installation cannot write {args.only} certificates")
     try:
         return run_batch(args.file, args.output, args.workers, args.only, args.cluster, args.timeout)
-    except BatchInputError as error:
+    except (BatchInputError, StoreError) as error:
         return fail(str(error))
 
 

@@ -26,8 +26,16 @@ MAX_INPUT_LENGTH = 20000
 """Longest CURVE argument accepted, in characters."""
 
 
+FACTORING_SECONDS = 5
+"""Longest time PARI may spend factoring one integer (denominators, gcd(c4, c6)) before certify gives up."""
+
+
 class CurveInputError(ValueError):
     """The CURVE argument is malformed, singular, not over Q, or over the documented size limits."""
+
+
+class FactoringTooHard(CurveInputError):
+    """An integer the minimal model needs could not be factored within FACTORING_SECONDS."""
 
 
 Change = tuple  # (u, r, s, t) as Fractions
@@ -179,10 +187,19 @@ class Curve:
         return Curve(change_model(self.a, tuple(Fraction(v) for v in change)))
 
     def integral_model(self) -> tuple["Curve", Change]:
-        """An integral model [u, 0, 0, 0] with 1/u the least integer d making every d^i·a_i integral."""
-        d = 1
-        for p in _primes_dividing(math.lcm(*(c.denominator for c in self.a))):
-            d *= p ** max(-(-_valuation(c.denominator, p) // i) for i, c in zip((1, 2, 3, 4, 6), self.a))
+        """An integral model [1/d, 0, 0, 0]: d the least integer making every d^i·a_i integral, or the lcm
+        of the denominators itself when it cannot be factored in time (still integral, not least)."""
+        return self._integral
+
+    @cached_property
+    def _integral(self) -> tuple["Curve", Change]:
+        denominators = math.lcm(*(c.denominator for c in self.a))
+        try:
+            d = 1
+            for p in _primes_dividing(denominators):
+                d *= p ** max(-(-_valuation(c.denominator, p) // i) for i, c in zip((1, 2, 3, 4, 6), self.a))
+        except FactoringTooHard:
+            d = denominators
         change = (Fraction(1, d), Fraction(0), Fraction(0), Fraction(0))
         return self.change(change), change
 
@@ -315,12 +332,21 @@ def _valuation(n: int, p: int) -> int:
 
 
 def _primes_dividing(n: int) -> list[int]:
-    """The prime factors of n (PARI factors it; the certifier may use generic algebra)."""
+    """The prime factors of n, by PARI within FACTORING_SECONDS (the certifier may use generic algebra)."""
     if abs(n) <= 1:
         return []
+    from cysignals.alarm import AlarmInterrupt, alarm, cancel_alarm
+
     from certify.pari import pari
 
-    return [int(p) for p in pari.factor(abs(n))[0]]
+    try:
+        alarm(FACTORING_SECONDS)
+        return [int(p) for p in pari.factor(abs(n))[0]]
+    except AlarmInterrupt:
+        raise FactoringTooHard(f"cannot factor a {abs(n).bit_length() * 30103 // 100000 + 1}-digit integer within {FACTORING_SECONDS} s "
+                               "to find the minimal model") from None
+    finally:
+        cancel_alarm()
 
 
 def inverse_change(change: Change) -> Change:

@@ -1,8 +1,9 @@
 """The torsion certifier: finds E(Q)_tors and the evidence that nothing is missing.
 
-Search and proof are the same computation. On the reduced minimal model, the rational ℓ-torsion
-points come from the rational roots of the ℓ-torsion polynomial; a point Q is ℓ-divisible exactly
-when φ_ℓ − x(Q)ψ_ℓ² has a rational root x with f(x) a rational square. Dividing until no class of
+Search and proof are the same computation. On the reduced minimal model (or only an integral one,
+when minimality would need an infeasible factorisation), the rational ℓ-torsion points come from the
+rational roots of the ℓ-torsion polynomial; a point Q is ℓ-divisible exactly when φ_ℓ − x(Q)ψ_ℓ² has
+a rational root x with f(x) a rational square. Dividing until no class of
 G/ℓG divides gives E(Q)[ℓ^∞] (see ``certify.verifier.torsion`` for the argument), and the roots met
 on the way, with a prime hint for each polynomial, are the evidence. Point counts at good odd primes
 (PARI's ellap) bound the order and decide which primes ℓ need that evidence at all.
@@ -11,7 +12,7 @@ from __future__ import annotations
 
 from math import gcd
 
-from certify.curves import Curve, format_rational, inverse_change
+from certify.curves import Curve, FactoringTooHard, format_rational, inverse_change
 from certify.pari import pari
 from certify.verifier import theorems
 from certify.roots import hint_prime, rational_roots
@@ -27,8 +28,11 @@ SEARCH_PRIMES = 40
 def certify_torsion(a, given=None) -> dict:
     """The torsion certificate of the curve with coefficients ``a`` (five Fractions)."""
     curve = Curve(a)
-    minimal, change = curve.minimal_model()
-    model = minimal.a
+    try:
+        reduced, change = curve.minimal_model()
+    except FactoringTooHard:
+        reduced, change = curve.integral_model()
+    model = reduced.a
     counts = good_reduction_counts(model, SEARCH_PRIMES)
     evidence_by_ell, generators = {}, []
     for ell in prime_factors(_gcd_all(counts.values())):

@@ -120,9 +120,6 @@ def test_large_parameters_give_coefficients_over_100_digits(group):
     assert max(max(len(str(abs(c.numerator))), len(str(c.denominator))) for c in a) > 100
 
 
-@pytest.mark.xfail(strict=True, reason="bug: Curve.integral_model factors the lcm of the coefficient denominators; "
-                   "here that is (t^2 - 3t + 1)^2 with t = 2^170 + 1, a 103-digit square PARI cannot factor, "
-                   "and the certifier hangs instead of finishing or refusing the input with a clear message")
 def test_a_large_denominator_does_not_hang_the_certifier():
     """Kubert's Z/10 curve at t = 2¹⁷⁰ + 1: its coefficients have about 100-digit denominators, far
     inside the documented input limit, so the certifier must either certify Z/10 (Kubert 1976) or
