@@ -1,0 +1,34 @@
+"""The front end's structural check: certificates against the JSON Schemas in ``schemas/`` (draft
+2020-12, with jsonschema). ``certify verify`` runs it before the standard-library verifier, which
+repeats its own structural checks so that it stays safe without jsonschema."""
+from __future__ import annotations
+
+import functools
+import json
+from importlib import resources
+
+import jsonschema
+
+SCHEMA_FILES = {
+    "certify-torsion": "torsion.schema.json",
+    "certify-isogeny-class": "isogeny-class.schema.json",
+}
+
+
+@functools.cache
+def validator(format_name: str) -> jsonschema.Draft202012Validator:
+    """The validator for one certificate format."""
+    text = resources.files("certify").joinpath("schemas", SCHEMA_FILES[format_name]).read_text(encoding="utf-8")
+    return jsonschema.Draft202012Validator(json.loads(text))
+
+
+def schema_violations(cert, most: int = 3) -> list[str]:
+    """The first ``most`` violations of the certificate's schema, each as 'path: message', in path order.
+
+    A document of no known format gets none here: the verifier rejects it by name.
+    """
+    if not isinstance(cert, dict) or cert.get("format") not in SCHEMA_FILES:
+        return []
+    errors = sorted(validator(cert["format"]).iter_errors(cert), key=lambda error: [str(p) for p in error.absolute_path])
+    return ["/" + "/".join(str(part) for part in error.absolute_path) + f": {error.message[:160]}"
+            for error in errors[:most]]
