@@ -147,6 +147,11 @@ class ChildCertifier:
             return {"task": task, "error": f"the certifying process died (exit status {child.wait()})"}
         return {"task": task, **json.loads(answer)}
 
+    @classmethod
+    def run_all(cls, tasks: list) -> list:
+        """[certify_one(task) for each task], computed in this thread's child."""
+        return [cls.run(task) for task in tasks]
+
 
 def serve() -> None:
     """The child's loop: one task as JSON per line in, one result as JSON per line out."""
@@ -156,25 +161,31 @@ def serve() -> None:
         print(json.dumps(result), flush=True)
 
 
+CLUSTER_CHUNK = 16
+"""Certificates per Dask task: one scheduler round trip per chunk, not per certificate."""
+
+
 def run_cluster(tasks, address: str):
     """The results of certify_one over the tasks, from the workers of the Dask scheduler at ``address``;
-    at most four tasks per worker thread are in flight, so a table of millions is never all submitted."""
+    the tasks go in chunks of CLUSTER_CHUNK, at most four chunks per worker thread in flight, so a
+    table of millions is never all submitted at once."""
     from distributed import Client, as_completed
 
     tasks = iter(tasks)
+    chunks = iter(lambda: list(islice(tasks, CLUSTER_CHUNK)), [])
     with Client(address) as client:
         window = 4 * max(1, sum(client.nthreads().values()))
-        pending = {client.submit(ChildCertifier.run, task, pure=False): task for task in islice(tasks, window)}
+        pending = {client.submit(ChildCertifier.run_all, chunk, pure=False): chunk for chunk in islice(chunks, window)}
         running = as_completed(list(pending))
         for future in running:
-            task = pending.pop(future)
+            chunk = pending.pop(future)
             try:
-                yield future.result()
-            except Exception as error:  # a worker lost while running the task
-                yield {"task": task, "error": f"cluster: {type(error).__name__}: {error}"}
-            for task in islice(tasks, 1):
-                future = client.submit(ChildCertifier.run, task, pure=False)
-                pending[future] = task
+                yield from future.result()
+            except Exception as error:  # a worker lost while running the chunk
+                yield from ({"task": task, "error": f"cluster: {type(error).__name__}: {error}"} for task in chunk)
+            for chunk in islice(chunks, 1):
+                future = client.submit(ChildCertifier.run_all, chunk, pure=False)
+                pending[future] = chunk
                 running.add(future)
 
 

@@ -32,9 +32,16 @@ def file_stem(key: str) -> str:
     return stem[:LONGEST_STEM - 17] + "~" + hashlib.sha256(key.encode("ascii")).hexdigest()[:16]
 
 
+class StoreError(Exception):
+    """OUT cannot be opened as a store."""
+
+
 def open_store(path: str):
     """The store named by OUT: a SQLite store when it ends in .sqlite, a directory otherwise."""
-    return SqliteStore(path) if path.endswith(STORE_SUFFIX) else DirectoryStore(path)
+    try:
+        return SqliteStore(path) if path.endswith(STORE_SUFFIX) else DirectoryStore(path)
+    except (OSError, sqlite3.Error) as error:
+        raise StoreError(f"cannot use {path} as a store: {getattr(error, 'strerror', None) or error}")
 
 
 class DirectoryStore:

@@ -16,9 +16,10 @@ TABLE = Path(__file__).resolve().parent / "data" / "conductor_lt_1000.txt"
 
 
 def cremona_curves(count: int, start: int = 0) -> list:
-    """(coefficients, 'conductor-index') of curves of Cremona's table (the fixture's header gives the format)."""
+    """(coefficients, 'conductor.class-position') of curves of Cremona's table (the fixture's header gives
+    the format: conductor, class index, a1 … a6)."""
     rows = [line.split() for line in TABLE.read_text().splitlines() if not line.startswith("#")]
-    return [([int(c) for c in row[2:7]], f"{row[0]}-{i}") for i, row in enumerate(rows[start:start + count], start)]
+    return [([int(c) for c in row[2:7]], f"{row[0]}.{row[1]}-{i}") for i, row in enumerate(rows[start:start + count], start)]
 
 
 def batch_file(tmp_path, curves, extra=()) -> str:
@@ -158,3 +159,22 @@ def test_cluster_run_on_a_local_dask_cluster(tmp_path):
     assert digests("cluster.sqlite") == digests("local.sqlite") and len(digests("local.sqlite")) == 12
     code, rows = verified(str(tmp_path / "cluster.sqlite"), "--workers", "2")
     assert code == 0 and len(rows) == 12
+
+
+@pytest.mark.table
+def test_whole_table_into_a_store_verifies_and_matches_cremonas_classes(tmp_path):
+    """All 5,113 curves of conductor < 1000, both kinds, into SQLite: every certificate accepted, and each
+    class size is the number of curves Cremona's table lists in that class (fixture: conductor and
+    class index)."""
+    curves = cremona_curves(10 ** 6)
+    store = str(tmp_path / "table.sqlite")
+    assert certify("batch", batch_file(tmp_path, curves), "-o", store).returncode == 0
+    code, rows = verified(store, "--workers", "2")
+    assert code == 0 and len(rows) == 2 * len(curves)
+    sizes = {}
+    for _, label in curves:
+        conductor_class = label.rsplit("-", 1)[0]
+        sizes[conductor_class] = sizes.get(conductor_class, 0) + 1
+    for curve, kind, label, document, _ in store_rows(store):
+        if kind == "isogeny-class":
+            assert len(json.loads(document)["claim"]["curves"]) == sizes[label.rsplit("-", 1)[0]], curve

@@ -11,6 +11,7 @@ import argparse
 import json
 import sys
 import time
+from itertools import islice
 
 from certify.verifier import verify
 from certify.verifier.digest import NotCanonical, claim_digest, digest
@@ -19,6 +20,8 @@ from certify.verifier.report import claim_lines, describe_claim, one_line, repor
 from certify.verifier.sources import Unreadable, check_recorded, documents, tasks
 
 JSONL_KEYS = ("file", "accepted", "reason")
+WINDOW = 1000
+"""Tasks handed to the worker processes at a time, so that a large store is never all in memory."""
 
 
 def check(name: str, document, recorded: dict) -> dict:
@@ -83,9 +86,11 @@ def verdicts(paths, workers: int):
         return
     import multiprocessing  # only here: importing it registers a module alias, __mp_main__
 
+    tasks = all_tasks(paths)
     with multiprocessing.Pool(workers) as pool:
-        for results in pool.imap(run_task, all_tasks(paths), chunksize=8):
-            yield from results
+        while window := list(islice(tasks, WINDOW)):
+            for results in pool.imap(run_task, window, chunksize=8):
+                yield from results
 
 
 def main(argv=None) -> int:
