@@ -12,11 +12,13 @@ from __future__ import annotations
 
 import json
 import os
+import signal
 import subprocess
 import sys
 import threading
 import time
 from collections import Counter
+from concurrent.futures import FIRST_COMPLETED, ThreadPoolExecutor, wait
 from dataclasses import dataclass
 from itertools import islice
 
@@ -102,36 +104,34 @@ def certify_one(task: Task) -> dict:
     return {"task": task, "document": to_json(cert), "digest": digest(cert)}
 
 
-def _quiet_worker() -> None:
-    """Local workers leave Ctrl-C to the main process, which stops them."""
-    import signal
-
-    signal.signal(signal.SIGINT, signal.SIG_IGN)
-
-
 def run_local(tasks, workers: int):
-    """The results of certify_one over the tasks, in completion order, from ``workers`` processes."""
-    if workers == 1:
-        yield from map(certify_one, tasks)
-        return
-    import multiprocessing
-
-    pool = multiprocessing.get_context("spawn").Pool(workers, initializer=_quiet_worker)
-    try:
-        yield from pool.imap_unordered(certify_one, tasks, chunksize=2)
-        pool.close()
-    finally:
-        pool.terminate()
-        pool.join()
+    """The results of certify_one over the tasks, in completion order, from ``workers`` child processes
+    (see ChildCertifier), at most four tasks each in flight. The main process computes nothing, so
+    that it can note a Ctrl-C at once and stop between two writes."""
+    tasks = iter(tasks)
+    with ThreadPoolExecutor(workers) as pool:
+        pending = {pool.submit(ChildCertifier.run, task) for task in islice(tasks, 4 * workers)}
+        try:
+            while pending:
+                done, pending = wait(pending, return_when=FIRST_COMPLETED)
+                for future in done:
+                    yield future.result()
+                    pending |= {pool.submit(ChildCertifier.run, task) for task in islice(tasks, 1)}
+        finally:
+            for future in pending:
+                future.cancel()
+            ChildCertifier.stop_all()
 
 
 class ChildCertifier:
     """certify_one in a private child process (``python -m certify.batch``), talking JSON lines over
-    pipes. A Dask worker runs tasks in threads, but PARI may only be used from the thread that
-    started it; each worker thread hands its tasks to a child of its own, whose main thread runs
-    them (so ``--timeout`` applies there too)."""
+    pipes; each thread that certifies has a child of its own. PARI may only be used from the thread
+    that started it, and Dask workers run tasks in threads: the child's main thread runs them (so
+    ``--timeout`` applies there too). Children run in a session of their own, so a Ctrl-C at the
+    terminal reaches only the main process, which stops them (``stop_all``) when it is done."""
 
     local = threading.local()
+    children: list = []
 
     @classmethod
     def run(cls, task: Task) -> dict:
@@ -139,10 +139,15 @@ class ChildCertifier:
         child = getattr(cls.local, "child", None)
         if child is None or child.poll() is not None:
             child = cls.local.child = subprocess.Popen([sys.executable, "-m", "certify.batch"], text=True,
-                                                       stdin=subprocess.PIPE, stdout=subprocess.PIPE)
-        child.stdin.write(json.dumps(task.__dict__) + "\n")
-        child.stdin.flush()
-        answer = child.stdout.readline()
+                                                       stdin=subprocess.PIPE, stdout=subprocess.PIPE,
+                                                       start_new_session=True)
+            cls.children.append(child)
+        try:
+            child.stdin.write(json.dumps(task.__dict__) + "\n")
+            child.stdin.flush()
+            answer = child.stdout.readline()
+        except (BrokenPipeError, ValueError):  # stopped by stop_all meanwhile
+            answer = ""
         if not answer:
             return {"task": task, "error": f"the certifying process died (exit status {child.wait()})"}
         return {"task": task, **json.loads(answer)}
@@ -151,6 +156,14 @@ class ChildCertifier:
     def run_all(cls, tasks: list) -> list:
         """[certify_one(task) for each task], computed in this thread's child."""
         return [cls.run(task) for task in tasks]
+
+    @classmethod
+    def stop_all(cls) -> None:
+        """End every child this process started and wait for each."""
+        while cls.children:
+            child = cls.children.pop()
+            child.kill()
+            child.wait()
 
 
 def serve() -> None:
@@ -240,8 +253,10 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
             tasks += [Task(key, kind, label, timeout) for kind in kinds if not store.has(key, kind)]
     open_kinds = Counter(task.key for task in tasks)
     progress = Progress(len(labels), len(labels) - len(open_kinds))
-    written = 0
+    written, interrupted = 0, []
     results = certify_all(tasks, workers, cluster)
+    # Ctrl-C is noted, not raised: the run stops between two writes, so none is ever cut short.
+    previous = signal.signal(signal.SIGINT, lambda *_: interrupted.append(True))
     try:
         for result in results:
             task = result["task"]
@@ -254,14 +269,17 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
             open_kinds[task.key] -= 1
             if open_kinds[task.key] == 0:
                 progress.advance()
-    except KeyboardInterrupt:
+            if interrupted:
+                break
+    finally:
+        results.close()
+        signal.signal(signal.SIGINT, previous)
         progress.close()
         store.close()
+    if interrupted:
         print(f"batch: interrupted; {written} certificates written to {out} are complete, rerun to continue",
               file=sys.stderr)
         return 130
-    progress.close()
-    store.close()
     skipped = len(labels) * len(kinds) - len(tasks)
     print(f"batch: {len(labels)} curves, {written} certificates written, {skipped} already in {out}, "
           f"{len(failures)} failures", file=sys.stderr)

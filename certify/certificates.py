@@ -1,6 +1,7 @@
 """Writing certificates: canonical JSON text and atomic files."""
 from __future__ import annotations
 
+import contextlib
 import json
 import os
 import sys
@@ -23,8 +24,9 @@ def write_atomically(path: str, text: str) -> None:
             out.flush()
             os.fsync(out.fileno())
         os.replace(temporary, path)
-    except BaseException:
-        os.unlink(temporary)
+    except BaseException:  # an interrupt may also come just after the rename, when nothing is left to remove
+        with contextlib.suppress(FileNotFoundError):
+            os.unlink(temporary)
         raise
 
 
