@@ -86,3 +86,10 @@ def test_isogeny_class_report_lists_the_curves_and_the_degree_matrix(tmp_path):
         assert f"E{i + 1}: {Curve(parse_curve('[' + ','.join(a) + ']')).equation()}" in text
     rows = [line.split() for line in text.splitlines() if re.fullmatch(r"\s+[\d ]+", line)]
     assert sorted(sorted(map(int, row)) for row in rows) == sorted(sorted(int(d) for d in row) for row in matrix)
+
+
+def test_a_theorem_the_verifier_does_not_know_is_flagged_not_echoed(tmp_path):
+    cert = certify_torsion(parse_curve("[0,2,0,-15,0]"))
+    cert["relies_on"].append({"key": "wishful-thinking", "statement": "Every claim is true.", "reference": "none"})
+    text = run("-m", "certify.verifier", write(tmp_path, "c.json", cert)).stdout
+    assert "wishful-thinking: not a result this verifier knows" in text and "Every claim is true." not in text

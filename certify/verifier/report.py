@@ -71,12 +71,12 @@ def class_facts(cert: dict) -> tuple:
 
 def assumptions(keys) -> list:
     """Report lines for the theorems a certificate relies on: statement, then reference, indented."""
-    lines, known = [], THEOREMS
+    lines = []
     for key in keys:
-        if key not in known:
+        if key not in THEOREMS:
             lines.append(f"{key}: not a result this verifier knows; none of its checks uses it")
             continue
-        statement, reference = known[key]
+        statement, reference = THEOREMS[key]
         lines += textwrap.wrap(f"{key}: {statement}", WIDTH - 16, subsequent_indent="  ")
         lines += textwrap.wrap(reference, WIDTH - 16, initial_indent="  — ", subsequent_indent="    ")
     return lines
