@@ -1,11 +1,12 @@
 """Figures for batch certification (issue 4), printed side by side; nothing is asserted.
 
-    python bench/bench_batch.py [--curves 500] [--memory 20000] [--memory-kinds torsion|both]
+    python bench/bench_batch.py [--curves 500] [--scaling 2000] [--memory 20000] [--memory-kinds torsion|both]
 
 1. On the first N curves of Cremona's table (tests/data/conductor_lt_1000.txt), one process, both
    certificates per curve: the time of PARI's uncertified elltors + ellisomat on the same curves, the
    time to certify, and the time to verify all the certificates; their ratios; the median certificate size.
-2. The same N curves through ``certify batch`` with 1 and with 2 workers: wall-clock times and speed-up.
+2. The first S curves (default 2000, so that the second or so each run spends starting PARI is
+   amortised) through ``certify batch`` with 1 and with 2 workers: wall-clock times and speed-up.
 3. A run of M curves (the table and quadratic twists of it) through ``certify batch`` into a SQLite
    store, in a child process: peak resident memory after the first M/4 curves and after all M.
 """
@@ -93,8 +94,9 @@ def workers(curves: list, folder: str) -> None:
     source = write_batch(curves, folder, "workers.txt")
     one = batch_run(source, os.path.join(folder, "one"), "--workers", "1")
     two = batch_run(source, os.path.join(folder, "two"), "--workers", "2")
-    print(f"certify batch on the same {len(curves)} curves: 1 worker {one:.2f} s, 2 workers {two:.2f} s, "
-          f"speed-up {one / two:.2f}×")
+    print(f"certify batch on the first {len(curves)} curves: 1 worker {one:.2f} s, 2 workers {two:.2f} s, "
+          f"speed-up {one / two:.2f}× (load average before: {os.getloadavg()[0]:.1f} on {os.cpu_count()} cores; "
+          "other work on the machine lowers the speed-up)")
 
 
 def memory(curves: list, folder: str, kinds: str) -> None:
@@ -116,6 +118,7 @@ def memory(curves: list, folder: str, kinds: str) -> None:
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--curves", type=int, default=500)
+    parser.add_argument("--scaling", type=int, default=2000)
     parser.add_argument("--memory", type=int, default=20000)
     parser.add_argument("--memory-kinds", choices=("torsion", "both"), default="torsion")
     args = parser.parse_args()
@@ -123,7 +126,8 @@ def main() -> None:
     with tempfile.TemporaryDirectory() as folder:
         if args.curves:
             single_process(curves[:args.curves])
-            workers(curves[:args.curves], folder)
+        if args.scaling:
+            workers(curves[:args.scaling], folder)
         if args.memory:
             memory(twisted(curves, args.memory), folder, args.memory_kinds)
     print(f"(this process: peak RSS {resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024:.0f} MiB)")
