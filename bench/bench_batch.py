@@ -92,10 +92,11 @@ def batch_run(source: str, out: str, *options) -> float:
 
 def workers(curves: list, folder: str) -> None:
     source = write_batch(curves, folder, "workers.txt")
+    load = os.getloadavg()[0]
     one = batch_run(source, os.path.join(folder, "one"), "--workers", "1")
     two = batch_run(source, os.path.join(folder, "two"), "--workers", "2")
     print(f"certify batch on the first {len(curves)} curves: 1 worker {one:.2f} s, 2 workers {two:.2f} s, "
-          f"speed-up {one / two:.2f}× (load average before: {os.getloadavg()[0]:.1f} on {os.cpu_count()} cores; "
+          f"speed-up {one / two:.2f}× (load average before: {load:.1f} on {os.cpu_count()} cores; "
           "other work on the machine lowers the speed-up)")
 
 
