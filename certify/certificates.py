@@ -13,16 +13,19 @@ def to_json(cert: dict) -> str:
     return json.dumps(cert, indent=1, ensure_ascii=False) + "\n"
 
 
-def write_atomically(path: str, text: str) -> None:
+def write_atomically(path: str, text: str, durable: bool = True) -> None:
     """Write ``text`` to ``path`` through a temporary file in the same folder and a rename, so that an
-    interrupt or a full disk never leaves a half-written file under ``path``."""
+    interrupt or a full disk never leaves a half-written file under ``path``. ``durable`` also waits
+    for the disk (fsync) before the rename, against power cuts; a writer of many files may instead
+    sync once at the end."""
     folder = os.path.dirname(os.path.abspath(path))
     handle, temporary = tempfile.mkstemp(dir=folder, prefix=".certify-", suffix=".tmp")
     try:
         with os.fdopen(handle, "w", encoding="utf-8") as out:
             out.write(text)
             out.flush()
-            os.fsync(out.fileno())
+            if durable:
+                os.fsync(out.fileno())
         os.replace(temporary, path)
     except BaseException:  # an interrupt may also come just after the rename, when nothing is left to remove
         with contextlib.suppress(FileNotFoundError):

@@ -45,12 +45,13 @@ def open_store(path: str):
 
 
 class DirectoryStore:
-    """One file ``<stem>.<kind>.json`` per certificate; the failures of the last run in failures.jsonl."""
+    """One file ``<stem>.<kind>.json`` per certificate; the failures of the last run in failures.jsonl.
+    An empty file (what a power cut can leave of a file not yet on disk) counts as absent."""
 
     def __init__(self, path: str):
         os.makedirs(path, exist_ok=True)
         self.path, self.failures = path, []
-        self.present = set(os.listdir(path))
+        self.present = {entry.name for entry in os.scandir(path) if entry.stat().st_size > 0}
 
     def name(self, key: str, kind: str) -> str:
         return f"{file_stem(key)}.{kind}.json"
@@ -60,18 +61,21 @@ class DirectoryStore:
         return self.name(key, kind) in self.present
 
     def put(self, key: str, kind: str, label: str, document: str, digest: str) -> None:
-        write_atomically(os.path.join(self.path, self.name(key, kind)), document)
+        write_atomically(os.path.join(self.path, self.name(key, kind)), document, durable=False)
 
     def fail(self, key: str, kind: str, label: str, reason: str) -> None:
         self.failures.append({"curve": key, "kind": kind, "label": label, "reason": reason})
 
     def close(self) -> None:
-        """Write (or remove) failures.jsonl: the failures of this run, which a rerun retries."""
+        """Write (or remove) failures.jsonl: the failures of this run, which a rerun retries; then wait
+        for the disk once for all the files written (an fsync per file would make the writer, not the
+        certifiers, the bottleneck)."""
         target = os.path.join(self.path, FAILURES_FILE)
         if self.failures:
             write_atomically(target, "".join(json.dumps(f, ensure_ascii=False) + "\n" for f in self.failures))
         elif os.path.exists(target):
             os.unlink(target)
+        os.sync()
 
 
 class SqliteStore:
