@@ -3,7 +3,6 @@ import json
 import re
 import subprocess
 import sys
-from fractions import Fraction
 
 from hypothesis import given, strategies as st
 

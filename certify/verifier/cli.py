@@ -9,7 +9,6 @@ as certificates (unreadable, too large, not JSON, not a store, a bundle whose ma
 """
 import argparse
 import json
-import sys
 import time
 from itertools import islice
 
