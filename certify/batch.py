@@ -81,8 +81,8 @@ def read_batch(path: str):
 
 def certify_one(task: Task) -> dict:
     """{"task", "document" (JSON text), "digest"} for one certificate, or {"task", "error"}: any failure of
-    the certifier, or the time limit (local processes only: the limit is a SIGALRM, which only a
-    process's main thread receives), becomes a one-line reason instead of stopping the batch."""
+    the certifier, or the time limit, becomes a one-line reason instead of stopping the batch. The limit
+    is a SIGALRM, which reaches PARI only in a process's main thread: in the batch, a ChildCertifier's."""
     from cysignals.alarm import alarm, cancel_alarm
     from cysignals.signals import AlarmInterrupt
 
