@@ -5,10 +5,13 @@ A SOURCE is a certificate file, a bundle, a directory of certificate files, or a
 gives one line each, ``--jsonl`` one JSON object each with exactly the keys file, accepted, reason.
 
 Exit status: 0 if every certificate is accepted, 1 if any is rejected, 2 if a source cannot be read
-as certificates (unreadable, too large, not JSON, not a store, a bundle whose manifest does not match).
+as certificates (unreadable, too large, not JSON, not a store, a bundle whose manifest does not match)
+or the output is closed before every verdict is written.
 """
 import argparse
 import json
+import os
+import sys
 import time
 from itertools import islice
 
@@ -105,12 +108,16 @@ def main(argv=None) -> int:
     if args.workers < 1:
         parser.error("--workers must be at least 1")
     tally = {"accepted": 0, "rejected": 0, "unreadable": 0}
-    for result in verdicts(args.sources, args.workers):
-        tally["accepted" if result["accepted"] else "rejected" if result["readable"] else "unreadable"] += 1
-        if args.jsonl:
-            print(json.dumps({key: result[key] for key in JSONL_KEYS}, ensure_ascii=False), flush=True)
-        else:
-            print(one_line(result) if args.quiet else report(result) + "\n", flush=True)
+    try:
+        for result in verdicts(args.sources, args.workers):
+            tally["accepted" if result["accepted"] else "rejected" if result["readable"] else "unreadable"] += 1
+            if args.jsonl:
+                print(json.dumps({key: result[key] for key in JSONL_KEYS}, ensure_ascii=False), flush=True)
+            else:
+                print(one_line(result) if args.quiet else report(result) + "\n", flush=True)
+    except BrokenPipeError:  # the reader (| head) has gone: stop quietly, without a verdict on the rest
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+        return 2
     if not args.jsonl and sum(tally.values()) > 1:
         print(f"{sum(tally.values())} certificates: " + ", ".join(f"{n} {key}" for key, n in tally.items()))
     if tally["unreadable"]:
