@@ -155,6 +155,7 @@ def squarefree_part(f: list) -> list:
 
 def simple_roots_mod(f: list, p: int):
     """The roots of f in F_p if each of them is a simple root, else None."""
+    f = [c % p for c in f]
     df = derivative(f)
     roots = [r for r in range(p) if poly_eval_mod(f, r, p) == 0]
     return roots if all(poly_eval_mod(df, r, p) for r in roots) else None

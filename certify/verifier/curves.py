@@ -2,6 +2,7 @@
 division polynomials. Coefficients are (a1, a2, a3, a4, a6) as Fractions; points are pairs (x, y)
 of Fractions, and None is the point at infinity O.
 """
+import functools
 from fractions import Fraction
 
 from certify.verifier.arith import is_prime, poly_mul, poly_scale, poly_sub, rational_square_root, trim
@@ -95,13 +96,22 @@ def multiple(a, n: int, point):
     return result
 
 
-def exact_order(a, point, bound: int) -> int:
-    """The order of a point if it is at most ``bound``, else 0."""
+def torsion_order(model, point, bound: int) -> int:
+    """The order of a point of an integral model if it is at most ``bound``, else 0.
+
+    Every multiple of a torsion point is torsion, and a non-zero torsion point of an integral model has
+    4x and 8y integral (Silverman, *The Arithmetic of Elliptic Curves*, Cor. VIII.7.2, after Cassels):
+    a multiple without that property ends the search at once, so the coordinates met stay integers
+    (up to 4 and 8) instead of rationals of fast-growing height.
+    """
     current = point
     for n in range(1, bound + 1):
         if current is None:
             return n
-        current = add(a, current, point)
+        x, y = current
+        if (4 * x).denominator != 1 or (8 * y).denominator != 1:
+            return 0
+        current = add(model, current, point)
     return 0
 
 
@@ -125,6 +135,7 @@ def count_points(a, p: int) -> int:
     return count
 
 
+@functools.lru_cache(maxsize=4)
 def division_polynomials(a, n: int) -> list:
     """[f_0, …, f_n] with f_m = ψ_m for m odd and f_m = ψ_m/ψ_2 for m even, as integer polynomials.
 

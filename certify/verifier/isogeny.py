@@ -23,10 +23,13 @@ from certify.verifier.certificate import check_relies_on, field, rationals, read
 from certify.verifier.curves import (b_invariants, c_invariants, change_model, count_points, discriminant,
                                      division_polynomials, two_division_polynomial)
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_HINT_PRIME, MAX_KERNEL_SIZE, MAX_WORK
+from certify.verifier.limits import MAX_HINT_PRIME, MAX_KERNEL_DENOMINATOR, MAX_KERNEL_SIZE, MAX_WORK
 
 FORMAT = "certify-isogeny-class"
 VERSIONS = ("1",)
+
+KENKU_LARGEST_CLASS = 8
+"""An isogeny class over Q has at most 8 curves (Kenku 1982); used only to refuse larger claims at once."""
 
 MAZUR_PRIMES = (2, 3, 5, 7, 11, 13, 17, 19, 37, 43, 67, 163)
 """The primes ℓ for which some elliptic curve over Q has a rational ℓ-isogeny (Mazur 1978)."""
@@ -72,6 +75,7 @@ def check_isogeny_certificate(cert: dict) -> dict:
     degrees = read_degrees(field(claim, "degrees", list, "claim"), len(curves))
     edges = [read_edge(entry, len(curves), f"evidence.edges[{i}]")
              for i, entry in enumerate(field(evidence, "edges", list, "evidence"))]
+    check_kernel_budget(edges)
     witnesses = read_witnesses(field(evidence, "completeness", list, "evidence"), len(curves))
     check_relies_on(cert, RELIES_ON)
     check_work_budget(witnesses)
@@ -102,6 +106,9 @@ def read_models(entries: list) -> list:
     """The listed models: at least one, each five integers of a non-singular curve."""
     if not entries:
         raise Rejection("structure", "claim.curves is empty")
+    if len(entries) > KENKU_LARGEST_CLASS:
+        raise Rejection("class size", "no isogeny class over Q has more than 8 curves (Kenku 1982)",
+                        curves=len(entries))
     models = []
     for i, entry in enumerate(entries):
         model = read_curve(entry, f"claim.curves[{i}]")
@@ -148,9 +155,25 @@ def read_edge(entry: dict, size: int, where: str) -> dict:
     if len(h) * digits > MAX_KERNEL_SIZE:
         raise Rejection("kernel size", f"{where}.kernel is larger than the verifier allows (degree × digits)",
                         size=len(h) * digits, limit=MAX_KERNEL_SIZE)
+    common = 1
+    for c in h:
+        common = common * c.denominator // gcd(common, c.denominator)
+    if len(h) * (common.bit_length() * 30103 // 100000 + 1) > MAX_KERNEL_DENOMINATOR:
+        raise Rejection("kernel denominator", f"{where}.kernel has a common denominator larger than the verifier "
+                        "allows (degree × its digits)", limit=MAX_KERNEL_DENOMINATOR)
     return {"source": read_index(entry, "source", size, where), "target": read_index(entry, "target", size, where),
             "ell": ell, "kernel": h, "change": rationals(field(entry, "change", list, where), 4, f"{where}.change"),
-            "where": where}
+            "where": where, "size": len(h) * digits}
+
+
+def check_kernel_budget(edges: list) -> None:
+    """Refuse at once edges whose kernels together exceed twice MAX_KERNEL_SIZE (degree × digits): the
+    exact isogeny identities cost about that size to the power 1.6, and a genuine class has at most
+    two kernels of degree 163."""
+    total = sum(edge["size"] for edge in edges)
+    if total > 2 * MAX_KERNEL_SIZE:
+        raise Rejection("kernel size", "the kernel polynomials together are larger than the verifier allows",
+                        size=total, limit=2 * MAX_KERNEL_SIZE)
 
 
 def read_witnesses(entries: list, size: int) -> dict:
@@ -384,7 +407,9 @@ def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> N
     n, d = x_map(source, ell, h)
     if len(n) - 1 != ell or len(d) - 1 != ell - 1:
         raise Rejection("kernel polynomial", f"{where}: the x-map does not have degree ℓ", ell=ell)
-    p = next(q for q in range(10 ** 6 + 3, 10 ** 7, 2) if is_prime(q) and n[-1] % q and d[-1] % q)
+    p = next((q for q in range(10 ** 6 + 3, 10 ** 6 + 10 ** 4, 2) if is_prime(q) and n[-1] % q and d[-1] % q), None)
+    if p is None:
+        raise Rejection("kernel polynomial", f"{where}: no prime near 10^6 is free of the leading coefficients")
     if not coprime_mod(n, d, p):
         raise Rejection("kernel polynomial", f"{where}: the x-map has a common factor, so the kernel polynomial "
                         "does not define a subgroup of order ℓ", ell=ell)

@@ -28,10 +28,15 @@ MAX_ELL = 13
 
 MAX_WORK = 5_000_000
 """Budget per certificate, in residue evaluations: Σ p over the point counts, plus Σ p·deg over the
-polynomials solved from a prime hint. Checked from the stated hints before any count is run."""
+polynomials solved from a prime hint. Checked from the stated hints before any count is run; each
+polynomial is reduced mod p once, so an evaluation costs the same whatever the size of its coefficients."""
 
 MAX_POLYNOMIAL_SIZE = 2_000_000
 """Largest degree × coefficient digits of a polynomial to be built (estimated from the model first)."""
 
 MAX_KERNEL_SIZE = 100_000
 """Largest degree × coefficient digits of a kernel polynomial (a genuine 163-isogeny's is about 34,000)."""
+
+MAX_KERNEL_DENOMINATOR = 10_000
+"""Largest degree × digits of the common denominator of a kernel polynomial's coefficients: the exact
+isogeny identity carries its cube (kernels from reduced minimal models have denominators of a digit or two)."""

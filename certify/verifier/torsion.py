@@ -13,8 +13,8 @@ from math import gcd
 from certify.verifier.arith import is_prime, parse_integer, parse_rational, prime_factors, rational_roots
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
 from certify.verifier.curves import (add, change_model, change_point, count_points, discriminant,
-                                     division_by_ell_polynomial, exact_order, multiple, negate,
-                                     points_with_x, torsion_polynomial)
+                                     division_by_ell_polynomial, multiple, negate,
+                                     points_with_x, torsion_order, torsion_polynomial)
 from certify.verifier.errors import Rejection
 from certify.verifier.limits import MAX_ELL, MAX_HINT_PRIME, MAX_POLYNOMIAL_SIZE, MAX_PRIMES, MAX_WORK
 
@@ -39,16 +39,16 @@ def check_torsion_certificate(cert: dict) -> dict:
     check_work_budget(model, primes, ell_parts)
     check_relies_on(cert, RELIES_ON)
 
-    check_generator_orders(a, invariants, generators, field(evidence, "generator_orders", list, "evidence"))
-    group = check_group(a, invariants, generators)
-    model_group = [change_point(point, change) for point in group]
+    model_generators = [change_point(point, change) for point in generators]
+    check_generator_orders(model, invariants, model_generators, field(evidence, "generator_orders", list, "evidence"))
+    group = check_group(model, invariants, model_generators)
     bound = check_reduction_bound(model, primes, len(group))
     polynomials = 0
     for ell in prime_factors(bound // len(group)):
         if ell not in ell_parts:
             raise Rejection("ell part", "the point counts allow more ℓ-torsion and no division-polynomial "
                             "evidence is given for ℓ", ell=ell, bound=bound, order=len(group))
-        polynomials += check_ell_part(a, change, model, ell, model_group, ell_parts[ell])
+        polynomials += check_ell_part(a, change, model, ell, group, ell_parts[ell])
     return {"points checked": len(generators), "group elements": len(group),
             "primes recounted": len(primes), "polynomials solved": polynomials}
 
@@ -109,24 +109,25 @@ def check_invariants(values: list) -> list:
     return invariants
 
 
-def check_generator_orders(a, invariants: list, generators: list, stated: list) -> None:
-    """Generator i has exact order n_i, the i-th invariant; the stated orders must say the same."""
+def check_generator_orders(model, invariants: list, generators: list, stated: list) -> None:
+    """Generator i has exact order n_i, the i-th invariant, on the integral model (an isomorphism keeps
+    orders); the stated orders must say the same."""
     if len(generators) != len(invariants):
         raise Rejection("generators", "one generator per invariant is needed",
                         generators=len(generators), invariants=len(invariants))
     if [str(n) for n in invariants] != stated:
         raise Rejection("generator orders", "evidence.generator_orders differs from the invariants", stated=stated)
     for i, (n, point) in enumerate(zip(invariants, generators)):
-        order = exact_order(a, point, n)
+        order = torsion_order(model, point, n)
         if order != n:
             raise Rejection("generator orders", f"generator {i} does not have order {n}", order=order or f"> {n}")
 
 
-def check_group(a, invariants: list, generators: list) -> list:
+def check_group(model, invariants: list, generators: list) -> list:
     """The elements i·P1 + j·P2 of the generated group; they must be n1·n2 distinct points."""
     elements = [None]
     for n, point in zip(invariants, generators):
-        elements = [add(a, element, multiple(a, k, point)) for k in range(n) for element in elements]
+        elements = [add(model, element, multiple(model, k, point)) for k in range(n) for element in elements]
     if len(set(elements)) != len(elements):
         raise Rejection("independence", "the generators do not generate a group of order n1·n2",
                         expected=len(elements), found=len(set(elements)))
@@ -177,6 +178,9 @@ def check_ell_part(a, change, model, ell: int, group: list, entry: dict) -> int:
         q = change_point(read_point(a, field(item, "point", list, where), f"{where}.classes[{i}].point"), change)
         if q not in class_of:
             raise Rejection("ell part", "a class representative is not in the claimed group", ell=ell, point=item["point"])
+        if class_of[q] not in uncovered:
+            raise Rejection("ell part", "a class of G/ℓG is listed twice (or is the zero class)", ell=ell,
+                            point=item["point"])
         check_not_divisible(model, ell, q, item, f"{where}.classes[{i}]")
         uncovered -= {class_of[q], class_of[negate(model, q)]}
     if uncovered:
