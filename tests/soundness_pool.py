@@ -857,20 +857,3 @@ def damage_bytes(data: bytes, rnd: random.Random) -> bytes:
         elif data:
             del data[k:]
     return bytes(data)
-
-
-def hits_known_cli_bug(document) -> bool:
-    """Whether a parsed document triggers one of the two command-line crashes kept as strict xfails in
-    test_soundness_random_input (a non-iterable ``relies_on``; a bundle member name holding a lone
-    surrogate). Random-input tests skip these inputs until the bugs are fixed, so the suite stays green."""
-    documents = [document]
-    if isinstance(document, dict) and document.get("format") == "certify-bundle":
-        members = document.get("members")
-        documents += members if isinstance(members, list) else []
-        manifest = document.get("manifest")
-        listed = manifest.get("members") if isinstance(manifest, dict) else None
-        for entry in listed if isinstance(listed, list) else []:
-            if isinstance(entry, dict) and any(0xD800 <= ord(ch) <= 0xDFFF for ch in str(entry.get("name"))):
-                return True
-    return any(isinstance(d, dict) and "relies_on" in d and not isinstance(d["relies_on"], (list, dict, str))
-               for d in documents)

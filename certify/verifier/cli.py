@@ -9,6 +9,7 @@ as certificates (unreadable, too large, not JSON, not a store, a bundle whose ma
 or the output is closed before every verdict is written.
 """
 import argparse
+import functools
 import json
 import os
 import sys
@@ -26,15 +27,19 @@ WINDOW = 1000
 """Tasks handed to the worker processes at a time, so that a large store is never all in memory."""
 
 
-def check(name: str, document, recorded: dict) -> dict:
+def check(name: str, document, recorded: dict, precheck=None) -> dict:
     """The verdict on one certificate: {"file", "accepted", "reason", "readable"} and, for a readable
     one, "seconds", "digest", "curve", "relies_on" (keys) and, when accepted, "checks" (counts) and
-    "claim digest", "claim lines" (the claim in full)."""
+    "claim digest", "claim lines" (the claim in full). ``precheck(document)``, if given, returns
+    structural violations (``certify verify`` passes the JSON-Schema check); any of them rejects."""
     if isinstance(document, Unreadable):
         return {"file": name, "accepted": False, "reason": f"unreadable: {document}", "readable": False}
     started = time.perf_counter()
     result = {"file": name, "accepted": False, "readable": True, "checks": None}
     try:
+        violations = precheck(document) if precheck else []
+        if violations:
+            raise Rejection("schema", "; ".join(violations))
         result["checks"] = verify(document)["checks"]
         result["reason"] = describe_claim(document)
         result["digest"] = check_recorded(document, recorded, result["reason"])
@@ -50,7 +55,9 @@ def check(name: str, document, recorded: dict) -> dict:
     result["seconds"] = time.perf_counter() - started
     if isinstance(document, dict):
         result["curve"] = document.get("curve") if result["accepted"] else None
-        result["relies_on"] = [entry.get("key") for entry in document.get("relies_on", []) if isinstance(entry, dict)]
+        relies_on = document.get("relies_on")
+        result["relies_on"] = [entry.get("key") for entry in relies_on if isinstance(entry, dict)] \
+            if isinstance(relies_on, list) else []
         if "digest" not in result:
             try:
                 result["digest"] = digest(document)
@@ -66,9 +73,9 @@ def entries(task) -> list:
     return documents(task)
 
 
-def run_task(task) -> list:
+def run_task(task, precheck=None) -> list:
     """The verdicts for one unit of work (a bundle gives one per member)."""
-    return [check(*entry) for entry in entries(task)]
+    return [check(*entry, precheck=precheck) for entry in entries(task)]
 
 
 def all_tasks(paths):
@@ -80,22 +87,22 @@ def all_tasks(paths):
             yield ("unreadable", path, str(error))
 
 
-def verdicts(paths, workers: int):
+def verdicts(paths, workers: int, precheck=None):
     """Every verdict, in source order; with workers > 1 the checks run in that many processes."""
     if workers <= 1:
         for task in all_tasks(paths):
-            yield from run_task(task)
+            yield from run_task(task, precheck)
         return
     import multiprocessing  # only here: importing it registers a module alias, __mp_main__
 
     tasks = all_tasks(paths)
     with multiprocessing.Pool(workers) as pool:
         while window := list(islice(tasks, WINDOW)):
-            for results in pool.imap(run_task, window, chunksize=8):
+            for results in pool.imap(functools.partial(run_task, precheck=precheck), window, chunksize=8):
                 yield from results
 
 
-def main(argv=None) -> int:
+def main(argv=None, precheck=None) -> int:
     parser = argparse.ArgumentParser(prog="certify verify", description=(
         "Recheck certificates from scratch. SOURCE is a certificate, a bundle, a directory of "
         "certificates or a .sqlite store."))
@@ -108,8 +115,9 @@ def main(argv=None) -> int:
     if args.workers < 1:
         parser.error("--workers must be at least 1")
     tally = {"accepted": 0, "rejected": 0, "unreadable": 0}
+    sys.stdout.reconfigure(errors="backslashreplace")  # names from files may hold unpaired surrogates
     try:
-        for result in verdicts(args.sources, args.workers):
+        for result in verdicts(args.sources, args.workers, precheck):
             tally["accepted" if result["accepted"] else "rejected" if result["readable"] else "unreadable"] += 1
             if args.jsonl:
                 print(json.dumps({key: result[key] for key in JSONL_KEYS}, ensure_ascii=False), flush=True)
