@@ -13,6 +13,7 @@ from __future__ import annotations
 import json
 import os
 import signal
+import sqlite3
 import subprocess
 import sys
 import threading
@@ -238,25 +239,10 @@ class Progress:
             self.stream.write("\n")
 
 
-def run_batch(path: str, out: str, workers: int | None = None, only: str | None = None,
-              cluster: str | None = None, timeout: float | None = None) -> int:
-    """Certify the table into OUT; returns the exit status (0 all done, 1 some failed, 130 interrupted)."""
-    kinds = [only] if only else [kind for kind in KINDS if kind in certifiers()]
-    lines = read_batch(path)
-    store = open_store(out)
-    tasks, failures, labels = [], [], {}
-    for _, key, label, error in lines:
-        if error:
-            failures.append(error)
-        elif key not in labels:
-            labels[key] = label
-            tasks += [Task(key, kind, label, timeout) for kind in kinds if not store.has(key, kind)]
-    open_kinds = Counter(task.key for task in tasks)
-    progress = Progress(len(labels), len(labels) - len(open_kinds))
-    written, interrupted = 0, []
-    results = certify_all(tasks, workers, cluster)
-    # Ctrl-C is noted, not raised: the run stops between two writes, so none is ever cut short.
-    previous = signal.signal(signal.SIGINT, lambda *_: interrupted.append(True))
+def write_results(results, store, failures: list, open_kinds: Counter, progress, interrupted: list) -> int:
+    """Store each result as it comes (a certificate, or a failure with its reason) and return how many
+    certificates were written; stops after the result in hand when ``interrupted`` is set."""
+    written = 0
     try:
         for result in results:
             task = result["task"]
@@ -273,9 +259,39 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
                 break
     finally:
         results.close()
-        signal.signal(signal.SIGINT, previous)
         progress.close()
         store.close()
+    return written
+
+
+def run_batch(path: str, out: str, workers: int | None = None, only: str | None = None,
+              cluster: str | None = None, timeout: float | None = None) -> int:
+    """Certify the table into OUT; returns the exit status (0 all done, 1 some failed, 2 the store could not
+    be written, a full disk say, 130 interrupted)."""
+    kinds = [only] if only else [kind for kind in KINDS if kind in certifiers()]
+    lines = read_batch(path)
+    store = open_store(out)
+    tasks, failures, labels = [], [], {}
+    for _, key, label, error in lines:
+        if error:
+            failures.append(error)
+        elif key not in labels:
+            labels[key] = label
+            tasks += [Task(key, kind, label, timeout) for kind in kinds if not store.has(key, kind)]
+    open_kinds = Counter(task.key for task in tasks)
+    progress = Progress(len(labels), len(labels) - len(open_kinds))
+    interrupted = []
+    results = certify_all(tasks, workers, cluster)
+    # Ctrl-C is noted, not raised: the run stops between two writes, so none is ever cut short.
+    previous = signal.signal(signal.SIGINT, lambda *_: interrupted.append(True))
+    try:
+        written = write_results(results, store, failures, open_kinds, progress, interrupted)
+    except (OSError, sqlite3.Error) as error:  # a full disk: what is written is complete, the rest is not
+        print(f"certify: cannot write to {out}: {error}; the certificates already there are complete, "
+              "rerun to continue", file=sys.stderr)
+        return 2
+    finally:
+        signal.signal(signal.SIGINT, previous)
     if interrupted:
         print(f"batch: interrupted; {written} certificates written to {out} are complete, rerun to continue",
               file=sys.stderr)
