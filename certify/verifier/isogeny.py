@@ -497,8 +497,8 @@ def x0_roots_bound(j: Fraction, ell: int, witness: dict, where: str) -> int:
 
 
 def division_roots_bound(model, ell: int, witness: dict, where: str) -> int:
-    """For ℓ = 2 or 3 the rational ℓ-isogenies are the x ↦ x − x0 with x0 a rational root of F (ℓ = 2) or
-    ψ_3 (ℓ = 3): a subgroup {O, ±P} is rational exactly when x(P) is."""
+    """For ℓ = 2 or 3 the kernel polynomials of the rational ℓ-isogenies are the x − x0 with x0 a rational
+    root of F (ℓ = 2) or ψ_3 (ℓ = 3): a subgroup {O, ±P} is rational exactly when x(P) is."""
     if ell not in (2, 3):
         raise Rejection("division witness", f"{where}: only for ℓ = 2 or 3", ell=ell)
     polynomial = two_division_polynomial(model) if ell == 2 else division_polynomials(model, 3)[3]

@@ -28,9 +28,10 @@ THEOREMS = {
         "J. Velu, Isogenies entre courbes elliptiques, C. R. Acad. Sci. Paris 273 (1971), 238-241; "
         "D. Kohel, Endomorphism rings of elliptic curves over finite fields, thesis, Berkeley (1996), 2.4"),
     "isogeny-from-x-map": (
-        "A rational map between elliptic curves taking O to O is an isogeny; if its x-coordinate is a "
-        "rational function of x of degree l, the isogeny has degree l.",
-        "J. H. Silverman, The Arithmetic of Elliptic Curves, 2nd ed., Springer GTM 106 (2009), III.4.8 and II.2.3"),
+        "A rational map between elliptic curves taking O to O is an isogeny; its degree is [K(E) : phi*K(E')], "
+        "which equals the degree of its x-coordinate as a rational function of x, since [K(E) : K(x)] = 2 on "
+        "both curves.",
+        "J. H. Silverman, The Arithmetic of Elliptic Curves, 2nd ed., Springer GTM 106 (2009), III.4.8 and II.2"),
     "prime-degree-factorisation": (
         "Every isogeny over Q is a composite of isogenies of prime degree over Q; Hom_Q(E, E') is free of "
         "rank at most 1 (End_Q(E) = Z), so every rational isogeny E -> E' is a multiple of one cyclic isogeny, "
@@ -53,9 +54,12 @@ THEOREMS = {
         "parametrized modular equations, J. Ramanujan Math. Soc. 24 (2009), 1-73"),
     "finite-j-lists": (
         "For l in {11, 17, 19, 37, 43, 67, 163} a curve over Q has a rational l-isogeny exactly when j is in "
-        "the published list for l, and then exactly one (no cyclic l^2-isogeny exists over Q).",
-        "Mazur 1978; M. A. Kenku, On the number of Q-isomorphism classes of elliptic curves in each "
-        "Q-isogeny class, J. Number Theory 15 (1982), 199-202; Cremona, Algorithms, 3.8"),
+        "the list for l, and then exactly one: two would compose to a cyclic l^2-isogeny, and none exists "
+        "over Q for these l.",
+        "B. Mazur, Rational isogenies of prime degree, Invent. Math. 44 (1978), 129-162, with the rational "
+        "points of X_0(l) for these l (the j-values as recalled in the project's notes, each checked to carry "
+        "its isogeny); M. A. Kenku, On the number of Q-isomorphism classes of elliptic curves in each "
+        "Q-isogeny class, J. Number Theory 15 (1982), 199-202, for the cyclic degrees over Q"),
     "reduced-minimal-models": (
         "Every curve over Q has a unique reduced minimal model (a1, a3 in {0, 1}, a2 in {-1, 0, 1}); an "
         "integral model is non-minimal at p >= 5 exactly when p^4 | c4 and p^6 | c6, and at p = 2, 3 exactly "
