@@ -250,24 +250,9 @@ class Curve:
 
     def equation(self) -> str:
         """The model as mathematicians write it: y^2 + xy + y = x^3 - x^2 - 10x - 20."""
-        a1, a2, a3, a4, a6 = self.a
-        left = "y^2" + _monomials([(a1, "xy"), (a3, "y")])
-        right = "x^3" + _monomials([(a2, "x^2"), (a4, "x"), (a6, "")])
-        return f"{left} = {right}"
+        from certify.verifier.report import equation
 
-
-def _monomials(terms: list) -> str:
-    """' + 2x - (1/3)y - 1/2' for [(2, 'x'), (-1/3, 'y'), (-1/2, '')]: zero terms and unit coefficients dropped."""
-    out = ""
-    for coefficient, monomial in terms:
-        if coefficient == 0:
-            continue
-        sign = " - " if coefficient < 0 else " + "
-        magnitude = format_rational(abs(coefficient))
-        if monomial and "/" in magnitude:
-            magnitude = f"({magnitude})"
-        out += sign + (monomial if magnitude == "1" and monomial else magnitude + monomial)
-    return out
+        return equation(self.a)
 
 
 def _scale_candidates(curve: Curve, other: Curve) -> Iterator[Fraction]:

@@ -72,3 +72,16 @@ def test_demo_certifies_and_verifies_its_appendix(tmp_path):
     assert run.returncode == 0, run.stderr
     assert "accepted by the verifier" in run.stdout
     assert len(list(tmp_path.glob("*.json"))) >= 5
+
+
+@pytest.mark.parametrize("curve, written", [
+    # the first curve of Cremona's table (the fixture), written as his book writes equations (from memory)
+    ("[0,-1,1,-10,-20]", "y^2 + y = x^3 - x^2 - 10x - 20"),
+    ("[1/4,-3/2,1/8,5,7/2]", "y^2 + (1/4)xy + (1/8)y = x^3 - (3/2)x^2 + 5x + 7/2"),
+    ("[-1,0]", "y^2 = x^3 - x"),
+])
+def test_curves_print_as_weierstrass_equations(curve, written):
+    """Zero terms dropped, unit coefficients omitted, signs folded, fractional coefficients bracketed."""
+    from certify.curves import Curve, parse_curve
+
+    assert Curve(parse_curve(curve)).equation() == written
