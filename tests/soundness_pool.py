@@ -305,12 +305,12 @@ def honest_ell_parts(cert: dict) -> list:
     polynomial and of φ_ℓ − x(Q)ψ_ℓ² for one Q per pair ±C of classes of G/ℓG, each with a valid hint prime."""
     from math import gcd
 
-    from certify.torsion import class_representatives, hint_prime, rational_roots
+    from certify.roots import hint_prime, rational_roots
+    from certify.torsion import class_representatives
     from certify.verifier.arith import prime_factors
     from certify.verifier.curves import (add, change_point, division_by_ell_polynomial, multiple,
                                          torsion_polynomial)
 
-    a = tuple(Fraction(c) for c in cert["curve"])
     change = tuple(Fraction(c) for c in cert["evidence"]["integral_model"]["change"])
     model = tuple(Fraction(c) for c in cert["evidence"]["integral_model"]["curve"])
     gens = [change_point(tuple(Fraction(c) for c in P), change) for P in cert["claim"]["generators"]]
