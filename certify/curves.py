@@ -15,7 +15,6 @@ import re
 from dataclasses import dataclass
 from fractions import Fraction
 from functools import cached_property
-from typing import Iterator, Optional
 
 from certify.verifier.curves import b_invariants, c_invariants, change_model, discriminant
 
@@ -179,9 +178,6 @@ class Curve:
     def j(self) -> Fraction:
         return self.c4 ** 3 / self.discriminant
 
-    def is_integral(self) -> bool:
-        return all(c.denominator == 1 for c in self.a)
-
     def change(self, change: Change) -> "Curve":
         """The model obtained by x = u²x' + r, y = u³y' + su²x' + t (Silverman III.1, Table 3.1)."""
         return Curve(change_model(self.a, tuple(Fraction(v) for v in change)))
@@ -229,73 +225,24 @@ class Curve:
         b6 = (-b2 ** 3 + 36 * b2 * b4 - c6) // 216
         a1, a3 = b2 % 2, b6 % 2
         minimal = Curve((a1, (b2 - a1) // 4, a3, (b4 - a1 * a3) // 2, (b6 - a3) // 4))
-        return minimal, self.isomorphism_to(minimal, scale=to_integral[0] * u)
+        return minimal, self.change_to(minimal, to_integral[0] * u)
 
-    def isomorphism_to(self, other: "Curve", scale: Optional[Fraction] = None) -> Optional[Change]:
-        """A change [u, r, s, t] taking this model to ``other`` over Q, or None if they are not isomorphic.
+    def change_to(self, other: "Curve", u: Fraction) -> Change:
+        """The change [u, r, s, t] taking this model to the isomorphic model ``other``, given u.
 
-        Isomorphic models have c4' = c4/u⁴, c6' = c6/u⁶ (Silverman III.1); given u, the rest of the
-        change is forced by the formulas for a1', a2', a3'. With j ≠ 0, 1728 u is fixed up to sign
-        by u² = (c6·c4')/(c6'·c4); in general u is found among the rational roots of u⁴ = c4/c4'
-        and u⁶ = c6/c6'.
-        """
-        candidates = [scale] if scale is not None else _scale_candidates(self, other)
-        for u in candidates:
-            s = (u * other.a[0] - self.a[0]) / 2
-            r = (u * u * other.a[1] - self.a[1] + s * self.a[0] + s * s) / 3
-            t = (u ** 3 * other.a[2] - self.a[2] - r * self.a[0]) / 2
-            if self.change((u, r, s, t)) == other:
-                return (u, r, s, t)
-        return None
+        With u fixed, r, s, t are forced by the formulas for a1', a2', a3' (Silverman III.1, Table 3.1)."""
+        s = (u * other.a[0] - self.a[0]) / 2
+        r = (u * u * other.a[1] - self.a[1] + s * self.a[0] + s * s) / 3
+        t = (u ** 3 * other.a[2] - self.a[2] - r * self.a[0]) / 2
+        if self.change((u, r, s, t)) != other:
+            raise ArithmeticError("the models are not isomorphic by a change with this u")
+        return (u, r, s, t)
 
     def equation(self) -> str:
         """The model as mathematicians write it: y^2 + xy + y = x^3 - x^2 - 10x - 20."""
         from certify.verifier.report import equation
 
         return equation(self.a)
-
-
-def _scale_candidates(curve: Curve, other: Curve) -> Iterator[Fraction]:
-    """The rationals u > 0 with c4 = u⁴c4' and c6 = u⁶c6', and their negatives."""
-    ratios = []
-    if curve.c4 != 0 and other.c4 != 0:
-        ratios.append((curve.c4 / other.c4, 4))
-    if curve.c6 != 0 and other.c6 != 0:
-        ratios.append((curve.c6 / other.c6, 6))
-    if not ratios or (curve.c4 == 0) != (other.c4 == 0) or (curve.c6 == 0) != (other.c6 == 0):
-        return
-    # u¹² = Δ/Δ' is a positive rational; its 12th root decides u up to sign.
-    ratio = curve.discriminant / other.discriminant
-    root = _rational_root(ratio, 12) if ratio > 0 else None
-    if root is None:
-        return
-    for u in (root, -root):
-        if all(value == u ** k for value, k in ratios):
-            yield u
-
-
-def _rational_root(value: Fraction, k: int) -> Optional[Fraction]:
-    """The positive rational k-th root of a positive rational, or None."""
-    roots = []
-    for part in (value.numerator, value.denominator):
-        root = _integer_root(part, k)
-        if root is None:
-            return None
-        roots.append(root)
-    return Fraction(roots[0], roots[1])
-
-
-def _integer_root(n: int, k: int) -> Optional[int]:
-    """The integer k-th root of n ≥ 0 if n is a perfect k-th power, by Newton's iteration on integers."""
-    if n < 2:
-        return n
-    x = 1 << (n.bit_length() // k + 1)
-    while True:
-        y = ((k - 1) * x + n // x ** (k - 1)) // k
-        if y >= x:
-            break
-        x = y
-    return x if x ** k == n else None
 
 
 def _kraus_at(p: int, c4: int, c6: int) -> bool:
