@@ -23,7 +23,7 @@ def test_two_isogeny_matches_silverman_iii_4_5(a, b):
     a, b = Fraction(a), Fraction(b)
     codomain = Curve(velu_codomain((0, a, 0, b, 0), 2, [Fraction(0), Fraction(1)]))
     published = Curve((0, -2 * a, 0, a * a - 4 * b, 0))
-    assert codomain.isomorphism_to(published) is not None
+    assert codomain.minimal_model()[0] == published.minimal_model()[0]  # isomorphic over Q
 
 
 @pytest.mark.parametrize("model, ell", [((0, -1, 1, -10, -20), 5), ((1, 0, 1, 4, -6), 3), ((1, 1, 1, -10, -10), 2),
