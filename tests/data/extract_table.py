@@ -19,15 +19,16 @@ import sys
 LABEL = re.compile(r"^(\d+)([a-z]+)(\d+)$")
 
 
-def rows(folder: pathlib.Path, max_conductor: int = 1000):
-    """Yield (conductor, class_index, coefficients) for every curve with conductor < max_conductor.
+def rows(folder: pathlib.Path, max_conductor: int = 1000, name: str = "ell0.gz"):
+    """Yield (conductor, class_index, coefficients) for every curve of the file ``name`` (``ellK.gz``
+    holds the conductors 1000K to 1000K + 999) with conductor < max_conductor.
 
-    ``ell0.gz`` is a GP vector ``[[N, [label, [a1,...,a6], generators], ...], ...]``; PARI reads it.
+    Each file is a GP vector ``[[N, [label, [a1,...,a6], generators], ...], ...]``; PARI reads it.
     """
     import cypari2
 
     pari = cypari2.Pari()
-    table = pari(gzip.open(folder / "ell0.gz", "rt").read())
+    table = pari(gzip.open(folder / name, "rt").read())
     for block in table:
         conductor = int(block[0])
         if conductor >= max_conductor:
