@@ -9,10 +9,11 @@ from certify.verifier.certificate import check_depth, field
 
 def checkers() -> dict:
     """format name → (accepted versions, check function)."""
-    from certify.verifier import isogeny, torsion
+    from certify.verifier import conductor, isogeny, torsion
 
     return {torsion.FORMAT: (torsion.VERSIONS, torsion.check_torsion_certificate),
-            isogeny.FORMAT: (isogeny.VERSIONS, isogeny.check_isogeny_certificate)}
+            isogeny.FORMAT: (isogeny.VERSIONS, isogeny.check_isogeny_certificate),
+            conductor.FORMAT: (conductor.VERSIONS, conductor.check_conductor_certificate)}
 
 
 def verify(cert) -> dict:

@@ -28,17 +28,24 @@ def discriminant(a) -> Fraction:
     return -b2 * b2 * b8 - 8 * b4 ** 3 - 27 * b6 * b6 + 9 * b2 * b4 * b6
 
 
+def translate(a, r, s, t) -> tuple:
+    """The coefficients u^i·a_i' after x = u²x' + r, y = u³y' + su²x' + t, which do not depend on u
+    (Silverman III.1, Table 3.1); for u = 1 the new model, and integers stay integers."""
+    a1, a2, a3, a4, a6 = a
+    return (a1 + 2 * s,
+            a2 - s * a1 + 3 * r - s * s,
+            a3 + r * a1 + 2 * t,
+            a4 - s * a3 + 2 * r * a2 - (t + r * s) * a1 + 3 * r * r - 2 * s * t,
+            a6 + r * a4 + r * r * a2 + r ** 3 - t * a3 - t * t - r * t * a1)
+
+
 def change_model(a, change) -> tuple:
     """The coefficients after x = u²x' + r, y = u³y' + su²x' + t (Silverman III.1, Table 3.1)."""
     u, r, s, t = change
     if u == 0:
         raise Rejection("model change", "u must be non-zero", u=u)
-    a1, a2, a3, a4, a6 = a
-    return ((a1 + 2 * s) / u,
-            (a2 - s * a1 + 3 * r - s * s) / u ** 2,
-            (a3 + r * a1 + 2 * t) / u ** 3,
-            (a4 - s * a3 + 2 * r * a2 - (t + r * s) * a1 + 3 * r * r - 2 * s * t) / u ** 4,
-            (a6 + r * a4 + r * r * a2 + r ** 3 - t * a3 - t * t - r * t * a1) / u ** 6)
+    a1, a2, a3, a4, a6 = translate(a, r, s, t)
+    return a1 / u, a2 / u ** 2, a3 / u ** 3, a4 / u ** 4, a6 / u ** 6
 
 
 def change_point(point, change):

@@ -24,6 +24,8 @@ from certify.verifier.curves import (b_invariants, c_invariants, change_model, c
                                      division_polynomials, two_division_polynomial)
 from certify.verifier.errors import Rejection
 from certify.verifier.limits import MAX_HINT_PRIME, MAX_KERNEL_DENOMINATOR, MAX_KERNEL_SIZE, MAX_WORK
+from certify.verifier.models import check_input_model, check_reduced_form
+from certify.verifier.primality import is_probable_prime_certain
 
 FORMAT = "certify-isogeny-class"
 VERSIONS = ("1",)
@@ -213,19 +215,9 @@ def check_work_budget(witnesses: dict) -> None:
 
 # --- the models ---
 
-def check_input_model(a, first, change) -> None:
-    """The stated change of variables takes the input curve to the first listed model."""
-    if change_model(a, change) != tuple(first):
-        raise Rejection("input model", "the change of variables does not take the input curve to the first "
-                        "listed model", change=list(change), curve=list(first))
-
-
 def check_reduced_minimal(model, hint: dict, where: str) -> None:
     """The integral model is reduced and minimal at every prime, given the primes p ≥ 5 dividing gcd(c4, c6)."""
-    a1, a2, a3, _, _ = model
-    if a1 not in (0, 1) or a3 not in (0, 1) or a2 not in (-1, 0, 1):
-        raise Rejection("minimal model", f"{where} is not reduced (a1, a3 in {{0, 1}}, a2 in {{-1, 0, 1}})",
-                        curve=list(model))
+    check_reduced_form(model, where)
     c4, c6 = (int(c) for c in c_invariants(model))
     delta = int(discriminant(model))
     for p in (2, 3):
@@ -265,32 +257,6 @@ def scales_down_at(model, p: int) -> bool:
                         and (a6 + r * a4 + r * r * a2 + r ** 3 - t * a3 - t * t - r * t * a1) % p ** 6 == 0):
                     return True
     return False
-
-
-def is_probable_prime_certain(n: int) -> bool:
-    """Primality, proved: Miller–Rabin to the first 13 prime bases is deterministic below 3.3·10²⁴
-    (Sorenson and Webster 2016); larger numbers are refused."""
-    if n < 2 or n >= 3_317_044_064_679_887_385_961_981:
-        return False
-    bases = (2, 3, 5, 7, 11, 13, 17, 19, 23, 29, 31, 37, 41)
-    if n in bases:
-        return True
-    if any(n % b == 0 for b in bases):
-        return False
-    d, s = n - 1, 0
-    while d % 2 == 0:
-        d, s = d // 2, s + 1
-    for b in bases:
-        x = pow(b, d, n)
-        if x in (1, n - 1):
-            continue
-        for _ in range(s - 1):
-            x = x * x % n
-            if x == n - 1:
-                break
-        else:
-            return False
-    return True
 
 
 def check_distinct(curves: list) -> None:

@@ -40,3 +40,21 @@ MAX_KERNEL_SIZE = 100_000
 MAX_KERNEL_DENOMINATOR = 10_000
 """Largest degree × digits of the common denominator of a kernel polynomial's coefficients: the exact
 isogeny identity carries its cube (kernels from reduced minimal models have denominators of a digit or two)."""
+
+# --- conductor certificates (certify/verifier/conductor.py, certify/verifier/primality.py) ---
+
+MAX_DISCRIMINANT_PRIMES = 1000
+"""Most distinct primes listed for the minimal discriminant (each costs a primality proof and one run of
+Tate's algorithm; a discriminant within MAX_DIGITS has fewer than 1,300 distinct prime factors)."""
+
+MAX_POCKLINGTON_CERTIFICATES = 500
+"""Most Pocklington certificates in one certificate. They form one flat list, checked smallest first, so
+that no proof recurses: there is no recursion depth to bound."""
+
+MAX_POCKLINGTON_DIGITS = 1000
+"""Most decimal digits of a number proven prime by a Pocklington certificate."""
+
+MAX_PRIMALITY_WORK = 50_000
+"""Budget for the Pocklington certificates: Σ over them of (listed factors of n − 1) × (digits of n / 100)³
+(at least 1 each), about the number of modular exponentiations weighted by their cost relative to a
+100-digit modulus (a 1000-digit one costs about 1000 units, some 0.1 s). Checked before any is run."""

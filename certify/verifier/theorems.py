@@ -66,6 +66,36 @@ THEOREMS = {
         "when some change [p, r, s, t] with integers 0 <= r < p^2, 0 <= s < p, 0 <= t < p^3 keeps it integral.",
         "Cremona, Algorithms for Modular Elliptic Curves, 3.2; Silverman, The Arithmetic of Elliptic "
         "Curves, VII.1"),
+
+    "tate-algorithm": (
+        "For an integral Weierstrass model and a prime p, Tate's algorithm stops at the Kodaira symbol of the "
+        "special fibre of the minimal regular model at p, with its number m_p of irreducible components and "
+        "the Tamagawa number c_p, exactly when the model is minimal at p; a model not minimal at p passes its "
+        "last step (type II*). The reduction is multiplicative when the singular point of the reduction is a "
+        "node, split when the tangents there are defined over F_p, and additive when it is a cusp.",
+        "J. Tate, Algorithm for determining the type of a singular fiber in an elliptic pencil, Modular "
+        "Functions of One Variable IV, Springer LNM 476 (1975), 33-52; J. H. Silverman, Advanced Topics in "
+        "the Arithmetic of Elliptic Curves, Springer GTM 151 (1994), IV.9 (Tate's algorithm IV.9.4); "
+        "J. E. Cremona, Algorithms for Modular Elliptic Curves, 2nd ed. (1997), 3.2"),
+    "ogg-formula": (
+        "The exponent of p in the conductor is f_p = v_p(Delta_min) - m_p + 1, m_p the number of irreducible "
+        "components of the special fibre of the minimal regular model at p; N = prod p^f_p.",
+        "A. P. Ogg, Elliptic curves and wild ramification, Amer. J. Math. 89 (1967), 1-21; T. Saito, "
+        "Conductor, discriminant, and the Noether formula of arithmetic surfaces, Duke Math. J. 57 (1988), "
+        "151-173 (every residue characteristic, p = 2 included)"),
+    "pocklington-primality": (
+        "Let n > 1 and F a divisor of n - 1. If for every prime q dividing F some a has a^(n-1) = 1 mod n and "
+        "gcd(a^((n-1)/q) - 1, n) = 1, then every prime factor of n is 1 mod F; so n is prime when "
+        "(F + 1)^2 > n.",
+        "H. C. Pocklington, The determination of the prime or composite nature of large numbers by Fermat's "
+        "theorem, Proc. Cambridge Philos. Soc. 18 (1914), 29-30; J. Brillhart, D. H. Lehmer and "
+        "J. L. Selfridge, New primality criteria and factorizations of 2^m +- 1, Math. Comp. 29 (1975), "
+        "620-647"),
+    "miller-rabin-bound": (
+        "An odd n < 3317044064679887385961981 that is a strong probable prime to each of the bases 2, 3, 5, "
+        "..., 41 (the first 13 primes) is prime.",
+        "J. Sorenson and J. Webster, Strong pseudoprimes to twelve prime bases, Math. Comp. 86 (2017), "
+        "985-1003"),
 }
 
 
