@@ -29,6 +29,8 @@ def certify_command(kind: str, text: str, output: str | None) -> int:
         return fail(str(error))
     if kind == "torsion":
         from certify.torsion import certify_torsion as build
+    elif kind == "conductor":
+        from certify.conductor import certify_conductor as build
     else:
         from certify.isogeny.certificate import certify_isogeny_class as build
     try:
@@ -107,7 +109,8 @@ def parser() -> argparse.ArgumentParser:
         "[a1,a2,a3,a4,a6], [A,B] for y^2 = x^3 + Ax + B, or an equation such as 'y^2 + x*y = x^3 - x^2 + 3'."))
     commands = top.add_subparsers(dest="command", required=True)
     for name, about in (("torsion", "certify the rational torsion subgroup"),
-                        ("isogeny-class", "certify the rational isogeny class")):
+                        ("isogeny-class", "certify the rational isogeny class"),
+                        ("conductor", "certify the conductor, reduction types and Tamagawa numbers")):
         command = commands.add_parser(name, help=about)
         command.add_argument("curve", metavar="CURVE")
         command.add_argument("-o", "--output", metavar="FILE", help="write the certificate here (default: stdout)")
@@ -151,7 +154,7 @@ def main(argv=None) -> int:
     if getattr(args, "workers", None) is not None and args.workers < 1 or getattr(args, "timeout", None) is not None \
             and args.timeout <= 0:
         return fail("--workers and --timeout must be positive")
-    if args.command in ("torsion", "isogeny-class"):
+    if args.command in ("torsion", "isogeny-class", "conductor"):
         return certify_command(args.command, args.curve, args.output)
     if args.command == "table":
         return table_command(args.sources, args.form, args.document, args.output)

@@ -29,7 +29,7 @@ def test_report_states_curve_claim_checks_theorems_digest_and_time(tmp_path):
     report = run("-m", "certify", "verify", path)
     assert report.returncode == 0
     text = report.stdout
-    assert f"{path}: accepted" in text
+    assert f"accepted: {path}" in text
     assert "E: " + Curve(parse_curve("[1,0,1,-19,26]")).equation() in text
     assert "E(Q)_tors ≅ " + " × ".join(f"Z/{n}Z" for n in cert["claim"]["invariants"]) in text
     assert "primes recounted" in text and digest(cert) in text and re.search(r"time\s+\d+\.\d{3} s", text)
@@ -45,14 +45,14 @@ def test_rejected_report_names_the_failed_check(tmp_path):
     cert["evidence"]["primes"][0]["count"] = str(int(cert["evidence"]["primes"][0]["count"]) + 1)
     report = run("-m", "certify", "verify", write(tmp_path, "bad.json", cert))
     assert report.returncode == 1
-    assert ": rejected" in report.stdout and "failed" in report.stdout and "point count" in report.stdout
+    assert "rejected: " in report.stdout and "failed" in report.stdout and "point count" in report.stdout
 
 
 def test_quiet_one_line_each_jsonl_exact_keys_and_standalone_same_report(tmp_path):
     paths = [write(tmp_path, f"c{i}.json", certify_torsion(parse_curve(curve)))
              for i, curve in enumerate(["[0,2,0,-15,0]", "[0,1,1,-2,7]"])]
     quiet = run("-m", "certify", "verify", "--quiet", *paths).stdout.splitlines()
-    assert len(quiet) == 3 and all(line.startswith(path + ": accepted") for line, path in zip(quiet, paths))
+    assert len(quiet) == 3 and all(line.startswith("accepted: " + path) for line, path in zip(quiet, paths))
     lines = run("-m", "certify", "verify", "--jsonl", *paths).stdout.splitlines()
     assert [set(json.loads(line)) for line in lines] == [{"file", "accepted", "reason"}] * 2
     without_time = lambda text: re.sub(r"\d+\.\d{3} s", "", text)
@@ -79,4 +79,4 @@ def test_a_theorem_the_verifier_does_not_know_is_flagged_not_echoed(tmp_path):
     cert = certify_torsion(parse_curve("[0,2,0,-15,0]"))
     cert["relies_on"].append({"key": "wishful-thinking", "statement": "Every claim is true.", "reference": "none"})
     text = run("-m", "certify.verifier", write(tmp_path, "c.json", cert)).stdout
-    assert "wishful-thinking: not a result this verifier knows" in text and "Every claim is true." not in text
+    assert "'wishful-thinking': not a result this verifier knows" in text and "Every claim is true." not in text

@@ -4,7 +4,7 @@
 that failed and the values involved. Nothing here imports the rest of certify.
 """
 from certify.verifier.errors import Rejection
-from certify.verifier.certificate import check_depth, field
+from certify.verifier.certificate import check_shape, field
 
 
 def checkers() -> dict:
@@ -20,7 +20,7 @@ def verify(cert) -> dict:
     """Check one certificate (parsed JSON); returns {"format": ..., "checks": {...}} or raises Rejection."""
     if not isinstance(cert, dict):
         raise Rejection("structure", "a certificate is a JSON object", found=type(cert).__name__)
-    check_depth(cert)
+    check_shape(cert)
     name = field(cert, "format", str, "certificate")
     version = field(cert, "version", str, "certificate")
     known = checkers()

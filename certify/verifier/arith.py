@@ -3,12 +3,13 @@
 Polynomials are lists of integers, constant term first. Nothing here searches: every routine is a
 direct computation whose cost is bounded by its inputs.
 """
+import math
 import re
 from fractions import Fraction
 from math import gcd, isqrt
 
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_DIGITS, MAX_HINT_PRIME, MAX_SQUAREFREE_DEGREE
+from certify.verifier.limits import MAX_DIGITS, MAX_HINT_PRIME, MAX_LIFTING_WORK, MAX_SQUAREFREE_DEGREE
 
 _INTEGER = re.compile(r"-?(0|[1-9][0-9]*)")
 _RATIONAL = re.compile(r"-?(0|[1-9][0-9]*)(/[1-9][0-9]*)?")
@@ -153,6 +154,20 @@ def squarefree_part(f: list) -> list:
     return f if len(a) <= 1 else clear_denominators(_quotient(f, a))
 
 
+class Budget:
+    """What one certificate may still spend on a kind of work whose amount is known only as the checks
+    run (e.g. the number of roots modulo a hint prime): each ``spend`` comes before the work it pays for."""
+
+    def __init__(self, limit: int, check: str):
+        self.limit, self.check, self.spent = limit, check, 0
+
+    def spend(self, amount: int, what: str, **values) -> None:
+        self.spent += amount
+        if self.spent > self.limit:
+            raise Rejection(self.check, f"{what}: the certificate needs more of this work than the verifier's limit "
+                            f"of {self.limit}", spent=self.spent, **values)
+
+
 def simple_roots_mod(f: list, p: int):
     """The roots of f in F_p if each of them is a simple root, else None."""
     f = [c % p for c in f]
@@ -161,7 +176,7 @@ def simple_roots_mod(f: list, p: int):
     return roots if all(poly_eval_mod(df, r, p) for r in roots) else None
 
 
-def rational_roots(f: list, p: int, what: str) -> list:
+def rational_roots(f: list, p: int, what: str, budget: Budget) -> list:
     """All rational roots of the non-zero integer polynomial f, found exactly from the prime hint p.
 
     Statement used (Hensel's lemma; rational root theorem): if p ∤ lc(f) and every root of f in F_p is
@@ -192,16 +207,66 @@ def rational_roots(f: list, p: int, what: str) -> list:
         raise Rejection("rational roots", f"{what}: the hint prime divides the leading coefficient or a root "
                         f"modulo it is not simple (squarefree parts are taken only up to degree "
                         f"{MAX_SQUAREFREE_DEGREE})", p=p, degree=len(f) - 1)
-    lead, bound, df = f[-1], 2 * abs(f[-1] * f[0]), derivative(f)
+    budget.spend(lifting_work(f, residues), what, roots_mod_p=len(residues), degree=len(f) - 1)
+    lead, df = f[-1], derivative(f)
+    exponent = lifting_exponent(p, 2 * abs(lead * f[0]))
+    modulus = p ** exponent
     for r in residues:
-        modulus = p
-        while modulus <= bound:
-            modulus *= modulus
-            r = (r - poly_eval_mod(f, r, modulus) * pow(poly_eval_mod(df, r, modulus), -1, modulus)) % modulus
+        r = hensel_lift(f, df, r, p, exponent)
         candidate = (lead * r) % modulus
         if candidate > modulus // 2:
             candidate -= modulus
         root = Fraction(candidate, lead)
-        if poly_eval(f, root) == 0:
+        if root and is_root(f, root):
             roots.append(root)
     return sorted(roots)
+
+
+def lifting_exponent(p: int, bound: int) -> int:
+    """The least e with p^e > bound (from a lower estimate by logarithms, then exactly)."""
+    e = max(0, int((bound.bit_length() - 1) / math.log2(p)) - 1)
+    power = p ** e
+    while power <= bound:
+        e, power = e + 1, power * p
+    return e
+
+
+def hensel_lift(f: list, df: list, r: int, p: int, e: int) -> int:
+    """The root of f modulo p^e above the simple root r mod p, by Newton's iteration
+    r ← r − f(r)/f′(r), which doubles the p-adic precision at each step (Hensel's lemma); the precisions
+    run e, ⌈e/2⌉, … backwards, so that the last step works modulo p^e exactly."""
+    precisions = []
+    while e > 1:
+        precisions.append(e)
+        e = (e + 1) // 2
+    for e in reversed(precisions):
+        m = p ** e
+        r = (r - poly_eval_mod(f, r, m) * pow(poly_eval_mod(df, r, m), -1, m)) % m
+    return r
+
+
+def lifting_work(f: list, residues: list) -> int:
+    """The cost of lifting each root mod p to a modulus of about D = digits of 2·lc(f)·f(0) digits, by
+    Newton steps of about deg f multiplications of D-digit numbers: deg f × D² / 10⁶ units per root."""
+    digits = (f[-1] * f[0]).bit_length() * 30103 // 100000 + 2
+    return len(residues) * (len(f) - 1) * digits * digits // 10 ** 6
+
+
+def is_root(f: list, root: Fraction) -> bool:
+    """Whether f(a/b) = 0 for the rational a/b ≠ 0 in lowest terms: exactly when bx − a divides f in Z[x]
+    (Gauss's lemma, bx − a being primitive). With f = (bx − a)·q, c_i = b·q_(i−1) − a·q_i; the q_i are
+    found by exact integer divisions, by a from the constant term up when |a| ≥ |b| and by b from the top
+    down otherwise, so that |q_i| never exceeds Σ|c_i|; an inexact division ends the test."""
+    a, b = root.numerator, root.denominator
+    q = 0
+    if abs(a) >= abs(b):
+        for c in f[:-1]:
+            q, remainder = divmod(b * q - c, a)
+            if remainder:
+                return False
+        return f[-1] == b * q
+    for c in reversed(f[1:]):
+        q, remainder = divmod(c + a * q, b)
+        if remainder:
+            return False
+    return f[0] == -a * q

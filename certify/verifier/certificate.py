@@ -2,18 +2,41 @@
 from certify.verifier.arith import parse_rational
 from certify.verifier.curves import discriminant, on_curve
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_DEPTH, MAX_LIST_LENGTH
+from certify.verifier.limits import MAX_DEPTH, MAX_LIST_LENGTH, MAX_STRING_LENGTH
 
 
-def check_depth(document) -> None:
-    """The JSON document nests arrays and objects at most MAX_DEPTH deep (checked without recursion)."""
+def check_shape(document) -> None:
+    """The limits every JSON value must meet before any check looks at it, walked without recursion:
+    arrays and objects nested at most MAX_DEPTH deep, at most MAX_LIST_LENGTH entries in each, strings
+    (keys included) of at most MAX_STRING_LENGTH characters and valid Unicode (no lone surrogate)."""
     stack = [(document, 1)]
     while stack:
         value, depth = stack.pop()
-        if isinstance(value, (list, dict)):
+        if isinstance(value, str):
+            check_string(value)
+        elif isinstance(value, (list, dict)):
             if depth > MAX_DEPTH:
-                raise Rejection("nesting depth", f"the certificate nests deeper than {MAX_DEPTH} levels")
+                raise Rejection("nesting depth", f"the document nests deeper than {MAX_DEPTH} levels")
+            if len(value) > MAX_LIST_LENGTH:
+                raise Rejection("list size", f"a list or object has more than {MAX_LIST_LENGTH} entries",
+                                length=len(value))
+            if isinstance(value, dict):
+                for key in value:
+                    check_string(key)
             stack.extend((child, depth + 1) for child in (value.values() if isinstance(value, dict) else value))
+
+
+def check_string(text) -> None:
+    """A string within MAX_STRING_LENGTH characters that UTF-8 can encode (JSON escapes such as
+    \\ud800 can spell a lone surrogate, which is not a character)."""
+    if not isinstance(text, str):
+        raise Rejection("structure", "an object key is not a string", found=type(text).__name__)
+    if len(text) > MAX_STRING_LENGTH:
+        raise Rejection("string size", f"a string has more than {MAX_STRING_LENGTH} characters", length=len(text))
+    try:
+        text.encode("utf-8")
+    except UnicodeEncodeError:
+        raise Rejection("string syntax", "a string holds a lone surrogate, which is not a Unicode character")
 
 
 def field(obj, key: str, kind, where: str):

@@ -18,9 +18,11 @@ from itertools import islice
 
 from certify.verifier import verify
 from certify.verifier.digest import NotCanonical, claim_digest, digest
-from certify.verifier.errors import Rejection
-from certify.verifier.report import claim_lines, describe_claim, one_line, report
+from certify.verifier.errors import Rejection, show
+from certify.verifier.limits import MAX_NAME_BYTES
+from certify.verifier.report import claim_lines, describe_claim, one_line, printable, report
 from certify.verifier.sources import Unreadable, check_recorded, documents, tasks
+from certify.verifier.theorems import THEOREMS
 
 JSONL_KEYS = ("file", "accepted", "reason")
 WINDOW = 1000
@@ -32,8 +34,9 @@ def check(name: str, document, recorded: dict, precheck=None) -> dict:
     one, "seconds", "digest", "curve", "relies_on" (keys) and, when accepted, "checks" (counts) and
     "claim digest", "claim lines" (the claim in full). ``precheck(document)``, if given, returns
     structural violations (``certify verify`` passes the JSON-Schema check); any of them rejects."""
+    name = printable(name)
     if isinstance(document, Unreadable):
-        return {"file": name, "accepted": False, "reason": f"unreadable: {document}", "readable": False}
+        return {"file": name, "accepted": False, "reason": printable(f"unreadable: {document}"), "readable": False}
     started = time.perf_counter()
     result = {"file": name, "accepted": False, "readable": True, "checks": None}
     try:
@@ -53,10 +56,11 @@ def check(name: str, document, recorded: dict, precheck=None) -> dict:
     except RecursionError:
         result["reason"] = "structure: the document is nested too deeply"
     result["seconds"] = time.perf_counter() - started
+    result["reason"] = printable(result["reason"])
     if isinstance(document, dict):
         result["curve"] = document.get("curve") if result["accepted"] else None
         relies_on = document.get("relies_on")
-        result["relies_on"] = [entry.get("key") for entry in relies_on if isinstance(entry, dict)] \
+        result["relies_on"] = [theorem_key(entry.get("key")) for entry in relies_on if isinstance(entry, dict)] \
             if isinstance(relies_on, list) else []
         if "digest" not in result:
             try:
@@ -64,6 +68,14 @@ def check(name: str, document, recorded: dict, precheck=None) -> dict:
             except (NotCanonical, RecursionError):
                 pass
     return result
+
+
+def theorem_key(key) -> str:
+    """A ``relies_on`` key for the report: a key of ``THEOREMS`` as it is, anything else quoted, escaped
+    and cut, so that the report can name it without letting it speak."""
+    if isinstance(key, str) and key in THEOREMS:
+        return key
+    return printable(show(key))[:MAX_NAME_BYTES]
 
 
 def entries(task) -> list:

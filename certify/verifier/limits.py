@@ -9,7 +9,26 @@ MAX_DEPTH = 12
 """Deepest nesting of JSON arrays and objects in a certificate."""
 
 MAX_LIST_LENGTH = 10_000
-"""Longest list read anywhere in a certificate."""
+"""Most entries in one list or object anywhere in a document."""
+
+MAX_STRING_LENGTH = 10_000
+"""Longest string (or object key) anywhere in a document: room for a rational of two MAX_DIGITS parts."""
+
+MAX_VALUES = 1_000_000
+"""Most JSON values in one document, bounded before parsing by the count of the bytes ',', '[' and '{'
+(an over-count, since those bytes may stand inside strings): a file of MAX_FILE_BYTES made of tiny
+values would otherwise take gigabytes once parsed. A bundle of 1,000 certificates holds about 400,000."""
+
+MAX_NAME_BYTES = 200
+"""Longest name printed from inside a source (a bundle member's name, a store's curve and kind columns);
+longer ones are cut, and every name is printed escaped (``report.printable``)."""
+
+MAX_STORE_STEPS = 50_000_000
+"""Most SQLite virtual-machine steps to fetch one row of a store (the first fetch includes the sort of a
+store written without its key index); a store over it is unreadable."""
+
+MAX_STORE_MEMORY = 200_000_000
+"""SQLite's heap limit, in bytes, while a store is read (``PRAGMA hard_heap_limit``)."""
 
 MAX_DIGITS = 4000
 """Most decimal digits in one number (numerator or denominator)."""
@@ -20,8 +39,18 @@ MAX_HINT_PRIME = 100_000
 MAX_PRIMES = 64
 """Most primes with point counts in one certificate."""
 
-MAX_SQUAREFREE_DEGREE = 12
-"""Largest degree of a polynomial whose squarefree part the verifier computes (by Euclid over Q)."""
+MAX_SQUAREFREE_DEGREE = 4
+"""Largest degree of a polynomial whose squarefree part the verifier computes (by Euclid over Q; at most
+0.4 s at MAX_DIGITS). Of the polynomials the verifier solves, only φ_2 − x(Q)ψ_2² with 2Q = O (degree 4)
+can have multiple roots: ψ_ℓ, the 2-division cubic and P_ℓ(t) − j·t (j ≠ 0, 1728) are squarefree for a
+non-singular curve, and φ_ℓ − x(Q)ψ_ℓ² is squarefree unless 2Q = O, a class the ℓ-parts for odd ℓ never
+list. Every other hint prime must leave the polynomial squarefree and the leading coefficient a unit."""
+
+MAX_LIFTING_WORK = 15_000
+"""Budget per certificate for Hensel lifting: Σ over its root searches of (roots modulo the hint prime) ×
+degree × D² / 10⁶, D the digits of the lifting modulus (about 2·lc(f)·f(0)); about 0.13 s per 1,000 units,
+so two seconds at the limit. Each search is charged once its roots modulo p are known, before any is
+lifted, since the author of the hint chooses how many there are; genuine certificates spend a few units."""
 
 MAX_ELL = 13
 """Largest prime ℓ for which division polynomials (degree about ℓ²) are built."""
@@ -36,6 +65,14 @@ MAX_POLYNOMIAL_SIZE = 2_000_000
 
 MAX_KERNEL_SIZE = 100_000
 """Largest degree × coefficient digits of a kernel polynomial (a genuine 163-isogeny's is about 34,000)."""
+
+MAX_IDENTITY_SIZE = 160_000
+"""Largest ℓ × estimated digits of the x-map N/D (``isogeny.x_map_digits`` + model digits + 8)
+for which an isogeny identity is checked exactly, about two seconds at the limit for ℓ = 163. The two
+genuine 163-isogenies of the class of j = −2^18·3^3·5^3·23^3·29^3 need 81,000 and 141,000."""
+
+MAX_IDENTITY_TOTAL = 250_000
+"""Largest sum of those sizes over the edges of one certificate."""
 
 MAX_KERNEL_DENOMINATOR = 10_000
 """Largest degree × digits of the common denominator of a kernel polynomial's coefficients: the exact

@@ -11,9 +11,11 @@ import json
 import os
 import sqlite3
 
+from certify.verifier.certificate import check_shape
 from certify.verifier.digest import BUNDLE_FORMAT, digest
-from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_FILE_BYTES
+from certify.verifier.errors import Rejection, show
+from certify.verifier.limits import (MAX_DEPTH, MAX_DIGITS, MAX_FILE_BYTES, MAX_NAME_BYTES, MAX_STORE_MEMORY,
+                                     MAX_STORE_STEPS, MAX_VALUES)
 
 BUNDLE_VERSION = "1"
 
@@ -32,7 +34,7 @@ class Unreadable(Exception):
 
 
 def tasks(path: str):
-    """The units of work for one source: ('file', path) or ('text', name, JSON text, {"digest": recorded})."""
+    """The units of work for one source: ('file', path) or ('text', name, JSON bytes, {"digest": recorded})."""
     if path.endswith(STORE_SUFFIX) and os.path.isfile(path):
         yield from store_rows(path)
     elif os.path.isdir(path):
@@ -44,25 +46,68 @@ def tasks(path: str):
         yield ("file", path)
 
 
+STORE_QUERY = (f"SELECT substr(CAST(curve AS BLOB), 1, {MAX_NAME_BYTES}), "
+               f"substr(CAST(kind AS BLOB), 1, {MAX_NAME_BYTES}), typeof(document), "
+               f"CASE WHEN typeof(document) = 'text' AND length(CAST(document AS BLOB)) <= {MAX_FILE_BYTES} "
+               f"THEN CAST(document AS BLOB) END, "
+               f"CASE WHEN typeof(digest) = 'text' THEN substr(CAST(digest AS BLOB), 1, {MAX_NAME_BYTES}) END "
+               f"FROM {STORE_TABLE} ORDER BY curve, kind")
+"""Each row as bytes, every column cut to size inside SQLite: a column of any type, NULL or oversized
+reaches Python as at most MAX_NAME_BYTES (names and digest) or MAX_FILE_BYTES (the document) bytes."""
+
+
 def store_rows(path: str):
-    """('text', 'STORE#curve/kind', document, {"digest": recorded digest}) for every row of a store, in key order."""
+    """('text', 'STORE#curve/kind', document bytes or Unreadable, {"digest": recorded digest}) for every row
+    of a store, in key order. The store is opened read-only; ``certificates`` must be a table (a view
+    could compute without end), SQLite's own work is cut off after MAX_STORE_STEPS virtual-machine steps
+    per row and its memory at MAX_STORE_MEMORY bytes, and a row with a document that is not text of at most
+    MAX_FILE_BYTES is one unreadable verdict; the run goes on."""
     try:
         connection = sqlite3.connect(f"file:{path}?mode=ro", uri=True)
-        rows = connection.execute(f"SELECT curve, kind, document, digest FROM {STORE_TABLE} ORDER BY curve, kind")
-        for curve, kind, document, recorded in rows:
-            yield ("text", f"{path}#{curve}/{kind}", document, {"digest": recorded})
     except sqlite3.Error as error:
         raise Unreadable(f"{path}: not a certify store ({error})")
-    connection.close()
+    try:
+        connection.text_factory = bytes
+        connection.execute(f"PRAGMA hard_heap_limit = {MAX_STORE_MEMORY}")
+        steps = [0]
+
+        def interrupt() -> int:
+            steps[0] += 1000
+            return steps[0] > MAX_STORE_STEPS
+        connection.set_progress_handler(interrupt, 1000)
+        kind = connection.execute("SELECT type FROM sqlite_master WHERE name = ?", (STORE_TABLE,)).fetchone()
+        if kind != (b"table",):
+            raise Unreadable(f"{path}: not a certify store (no table {STORE_TABLE!r})")
+        rows = connection.execute(STORE_QUERY)
+        while True:
+            steps[0] = 0
+            row = rows.fetchone()
+            if row is None:
+                break
+            curve, kind, type_name, document, recorded = row
+            name = f"{path}#{_text(curve)}/{_text(kind)}"
+            if document is None:
+                document = Unreadable(f"the store holds no JSON text for this row (a {_text(type_name)} value, "
+                                      f"or more than {MAX_FILE_BYTES} bytes)")
+            yield ("text", name, document, {"digest": _text(recorded) if recorded is not None else None})
+    except sqlite3.Error as error:
+        raise Unreadable(f"{path}: not a certify store ({error})")
+    finally:
+        connection.close()
+
+
+def _text(value) -> str:
+    """A store column read as bytes, as text (invalid UTF-8 replaced)."""
+    return value.decode("utf-8", errors="replace") if isinstance(value, bytes) else str(value)
 
 
 def documents(task) -> list:
     """[(name, parsed certificate or Unreadable, {field: value recorded beside it})] for one task; a
     bundle gives one entry per member."""
     if task[0] == "text":
-        _, name, text, recorded = task
+        _, name, data, recorded = task
         try:
-            return [(name, parse(text.encode("utf-8")), recorded)]
+            return [(name, data if isinstance(data, Unreadable) else parse(data), recorded)]
         except Unreadable as error:
             return [(name, error, recorded)]
     path = task[1]
@@ -88,11 +133,58 @@ def read(path: str) -> bytes:
 
 
 def parse(data: bytes):
-    """The parsed JSON of a document."""
+    """The one reading of a JSON document (RFC 8259), refusing what two JSON readers could read
+    differently: an object key given twice (readers keep the first or the last), NaN and Infinity (not
+    JSON), floating-point numbers (no canonical text), lone surrogates (not Unicode). Every size limit
+    is applied here, before any other step sees the document: the file size and the number of values
+    before parsing, the size of JSON numbers while parsing, then nesting, list and string lengths."""
+    if len(data) > MAX_FILE_BYTES:
+        raise Unreadable(f"the document is larger than {MAX_FILE_BYTES} bytes")
+    values = data.count(b",") + data.count(b"[") + data.count(b"{")
+    if values > MAX_VALUES:
+        raise Unreadable(f"the document may hold more than {MAX_VALUES} JSON values")
     try:
-        return json.loads(data.decode("utf-8"))
-    except (UnicodeDecodeError, ValueError, RecursionError) as error:
+        text = data.decode("utf-8")
+    except UnicodeDecodeError as error:
+        raise Unreadable(f"not UTF-8 text: {str(error)[:120]}")
+    try:
+        document = json.loads(text, object_pairs_hook=_object, parse_constant=_not_json,
+                              parse_int=_integer, parse_float=_floating)
+    except Unreadable:
+        raise
+    except RecursionError:
+        raise Unreadable(f"the document nests deeper than {MAX_DEPTH} levels")
+    except ValueError as error:
         raise Unreadable(f"not a JSON document: {str(error)[:120]}")
+    try:
+        check_shape(document)
+    except Rejection as rejection:
+        raise Unreadable(str(rejection))
+    return document
+
+
+def _object(pairs: list) -> dict:
+    """A JSON object whose keys are distinct."""
+    result = dict(pairs)
+    if len(result) != len(pairs):
+        seen = set()
+        key = next(key for key, _ in pairs if key in seen or seen.add(key))
+        raise Unreadable(f"duplicate key: the object gives {show(key)} twice")
+    return result
+
+
+def _not_json(name: str):
+    raise Unreadable(f"{name} is not JSON")
+
+
+def _integer(text: str) -> int:
+    if len(text) > MAX_DIGITS:
+        raise Unreadable(f"a JSON number has more than {MAX_DIGITS} digits")
+    return int(text)
+
+
+def _floating(text: str):
+    raise Unreadable(f"the floating-point number {show(text)} has no canonical form; numbers are written as strings")
 
 
 def bundle_members(path: str, bundle: dict) -> list:
@@ -112,7 +204,9 @@ def bundle_members(path: str, bundle: dict) -> list:
     for entry, member in zip(listed, members):
         entry = entry if isinstance(entry, dict) else {}
         recorded = {key: entry.get(key) for key in MANIFEST_FIELDS if key != "name"}
-        out.append((f"{path}#{entry.get('name')}", member, recorded))
+        name = entry.get("name")
+        out.append((f"{path}#{name[:MAX_NAME_BYTES] if isinstance(name, str) else show(name)[:MAX_NAME_BYTES]}",
+                    member, recorded))
     return out
 
 

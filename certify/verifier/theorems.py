@@ -33,11 +33,13 @@ THEOREMS = {
         "both curves.",
         "J. H. Silverman, The Arithmetic of Elliptic Curves, 2nd ed., Springer GTM 106 (2009), III.4.8 and II.2"),
     "prime-degree-factorisation": (
-        "Every isogeny over Q is a composite of isogenies of prime degree over Q; Hom_Q(E, E') is free of "
-        "rank at most 1 (End_Q(E) = Z), so every rational isogeny E -> E' is a multiple of one cyclic isogeny, "
-        "of least degree.",
-        "Silverman, The Arithmetic of Elliptic Curves, III.4.11 and III.9.4; J. E. Cremona, Algorithms for "
-        "Modular Elliptic Curves, 2nd ed. (1997), 3.8"),
+        "Every isogeny E -> E' over Q is a multiplication-by-m map followed by a cyclic isogeny over Q, and a "
+        "cyclic isogeny over Q is a composite of isogenies of prime degree over Q: the subgroups of its cyclic, "
+        "Galois-stable kernel are characteristic, hence Galois-stable, and each step of a chain of them is the "
+        "kernel of an isogeny over Q. Hom_Q(E, E') is free of rank at most 1 (End_Q(E) = Z), so every rational "
+        "isogeny E -> E' is a multiple of one cyclic isogeny, of least degree.",
+        "Silverman, The Arithmetic of Elliptic Curves, III.4.11, III.4.12 and III.9.4; J. E. Cremona, Algorithms "
+        "for Modular Elliptic Curves, 2nd ed. (1997), 3.8"),
     "mazur-isogeny-primes": (
         "A rational isogeny of prime degree l of an elliptic curve over Q has l in "
         "{2, 3, 5, 7, 11, 13, 17, 19, 37, 43, 67, 163}.",
@@ -63,9 +65,11 @@ THEOREMS = {
     "reduced-minimal-models": (
         "Every curve over Q has a unique reduced minimal model (a1, a3 in {0, 1}, a2 in {-1, 0, 1}); an "
         "integral model is non-minimal at p >= 5 exactly when p^4 | c4 and p^6 | c6, and at p = 2, 3 exactly "
-        "when some change [p, r, s, t] with integers 0 <= r < p^2, 0 <= s < p, 0 <= t < p^3 keeps it integral.",
+        "when some change [p, r, s, t] with integers 0 <= r < p^2, 0 <= s < p, 0 <= t < p^3 keeps it integral. "
+        "The last uses that a change of variables between two p-integral models with u a p-integral has r, s, t "
+        "p-integral, and that r, s, t matter only modulo p^2, p, p^3 for the integrality of the new model.",
         "Cremona, Algorithms for Modular Elliptic Curves, 3.2; Silverman, The Arithmetic of Elliptic "
-        "Curves, VII.1"),
+        "Curves, VII.1, Prop. VII.1.3 and its proof (the integrality of r, s, t)"),
 
     "tate-algorithm": (
         "For an integral Weierstrass model and a prime p, Tate's algorithm stops at the Kodaira symbol of the "

@@ -10,13 +10,13 @@ The argument, each step one function below:
 """
 from math import gcd
 
-from certify.verifier.arith import is_prime, parse_integer, parse_rational, prime_factors, rational_roots
+from certify.verifier.arith import Budget, is_prime, parse_integer, parse_rational, prime_factors, rational_roots
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
 from certify.verifier.curves import (add, change_model, change_point, count_points, discriminant,
                                      division_by_ell_polynomial, multiple, negate,
                                      points_with_x, torsion_order, torsion_polynomial)
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_ELL, MAX_HINT_PRIME, MAX_POLYNOMIAL_SIZE, MAX_PRIMES, MAX_WORK
+from certify.verifier.limits import MAX_ELL, MAX_HINT_PRIME, MAX_LIFTING_WORK, MAX_POLYNOMIAL_SIZE, MAX_PRIMES, MAX_WORK
 
 FORMAT = "certify-torsion"
 VERSIONS = ("1",)
@@ -43,12 +43,12 @@ def check_torsion_certificate(cert: dict) -> dict:
     check_generator_orders(model, invariants, model_generators, field(evidence, "generator_orders", list, "evidence"))
     group = check_group(model, invariants, model_generators)
     bound = check_reduction_bound(model, primes, len(group))
-    polynomials = 0
+    polynomials, lifting = 0, Budget(MAX_LIFTING_WORK, "lifting work")
     for ell in prime_factors(bound // len(group)):
         if ell not in ell_parts:
             raise Rejection("ell part", "the point counts allow more ℓ-torsion and no division-polynomial "
                             "evidence is given for ℓ", ell=ell, bound=bound, order=len(group))
-        polynomials += check_ell_part(a, change, model, ell, group, ell_parts[ell])
+        polynomials += check_ell_part(a, change, model, ell, group, ell_parts[ell], lifting)
     return {"points checked": len(generators), "group elements": len(group),
             "primes recounted": len(primes), "polynomials solved": polynomials}
 
@@ -166,10 +166,10 @@ def check_reduction_bound(model, primes: dict, order: int) -> int:
     return bound
 
 
-def check_ell_part(a, change, model, ell: int, group: list, entry: dict) -> int:
+def check_ell_part(a, change, model, ell: int, group: list, entry: dict, lifting: Budget) -> int:
     """E(Q)[ℓ^∞] = G[ℓ^∞]: conditions (i) and (ii) of the module docstring. Returns polynomials solved."""
     where = f"evidence.ell_parts[ell={ell}]"
-    check_ell_torsion(model, ell, group, field(entry, "torsion", dict, where), where)
+    check_ell_torsion(model, ell, group, field(entry, "torsion", dict, where), where, lifting)
     classes = field(entry, "classes", list, where)
     scaled = {multiple(model, ell, g) for g in group}
     class_of = {g: frozenset(add(model, g, h) for h in scaled) for g in group}
@@ -181,7 +181,7 @@ def check_ell_part(a, change, model, ell: int, group: list, entry: dict) -> int:
         if class_of[q] not in uncovered:
             raise Rejection("ell part", "a class of G/ℓG is listed twice (or is the zero class)", ell=ell,
                             point=item["point"])
-        check_not_divisible(model, ell, q, item, f"{where}.classes[{i}]")
+        check_not_divisible(model, ell, q, item, f"{where}.classes[{i}]", lifting)
         uncovered -= {class_of[q], class_of[negate(model, q)]}
     if uncovered:
         raise Rejection("ell part", "some non-zero classes of G/ℓG have no divisibility evidence",
@@ -189,9 +189,9 @@ def check_ell_part(a, change, model, ell: int, group: list, entry: dict) -> int:
     return 1 + len(classes)
 
 
-def check_ell_torsion(model, ell: int, group: list, entry: dict, where: str) -> None:
+def check_ell_torsion(model, ell: int, group: list, entry: dict, where: str, lifting: Budget) -> None:
     """(i) every rational point with x among the rational roots of the ℓ-torsion polynomial is in G."""
-    roots = _solve(torsion_polynomial(model, ell), entry, where + ".torsion")
+    roots = _solve(torsion_polynomial(model, ell), entry, where + ".torsion", lifting)
     for x in roots:
         for point in points_with_x(model, x):
             if point not in group:
@@ -199,18 +199,18 @@ def check_ell_torsion(model, ell: int, group: list, entry: dict, where: str) -> 
                                 ell=ell, x=x)
 
 
-def check_not_divisible(model, ell: int, q, entry: dict, where: str) -> None:
+def check_not_divisible(model, ell: int, q, entry: dict, where: str, lifting: Budget) -> None:
     """(ii) no rational P has ℓP = ±Q: no rational root x of φ_ℓ − x(Q)ψ_ℓ² has f(x) a rational square."""
-    for x in _solve(division_by_ell_polynomial(model, ell, q[0]), entry, where):
+    for x in _solve(division_by_ell_polynomial(model, ell, q[0]), entry, where, lifting):
         if points_with_x(model, x):
             raise Rejection("ell division", "a point of the claimed group is ℓ times a rational point",
                             ell=ell, x=x)
 
 
-def _solve(polynomial: list, entry: dict, where: str) -> list:
+def _solve(polynomial: list, entry: dict, where: str, lifting: Budget) -> list:
     """The rational roots of the polynomial, from the entry's hint prime; they must match the stated roots."""
     prime = parse_integer(field(entry, "prime", str, where), f"{where}.prime")
-    roots = rational_roots(polynomial, prime, where)
+    roots = rational_roots(polynomial, prime, where, lifting)
     stated = sorted(parse_rational(v, f"{where}.roots") for v in field(entry, "roots", list, where))
     if stated != roots:
         raise Rejection("rational roots", f"{where}: the stated rational roots are not the roots",

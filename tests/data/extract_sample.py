@@ -25,16 +25,16 @@ FILES = range(100, 500)
 """ellK.gz holds the conductors 1000K to 1000K + 999: these are 100,000 to 499,999."""
 
 
-def sample(folder: pathlib.Path) -> list:
-    """SIZE curves (conductor, class_index, coefficients), uniform over the files' curves, in their order."""
-    chosen, generator, seen = [], random.Random(SEED), 0
+def sample(folder: pathlib.Path, seed: int = SEED, size: int = SIZE) -> list:
+    """``size`` curves (conductor, class_index, coefficients), uniform over the files' curves, in their order."""
+    chosen, generator, seen = [], random.Random(seed), 0
     for number in FILES:
         for row in rows(folder, max_conductor=10 ** 9, name=f"ell{number}.gz"):
-            if len(chosen) < SIZE:
+            if len(chosen) < size:
                 chosen.append((seen, row))
             else:
                 slot = generator.randrange(seen + 1)
-                if slot < SIZE:
+                if slot < size:
                     chosen[slot] = (seen, row)
             seen += 1
     return [row for _, row in sorted(chosen)]

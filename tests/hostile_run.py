@@ -1,0 +1,64 @@
+"""Running both verifier entry points on hostile files, the way a referee's machine would, under the bounds
+the hostile-input rules promise: every source answered within SECONDS seconds and MEGABYTES of address
+space (set with setrlimit on the child process, generous for slow machines), one verdict line per
+certificate in ``--quiet`` mode, valid JSON in ``--jsonl`` mode, no traceback, and nothing in the output
+that a terminal would act on instead of showing."""
+from __future__ import annotations
+
+import json
+import re
+import resource
+import subprocess
+import sys
+import time
+
+SECONDS = 10
+MEGABYTES = 500
+
+ENTRY_POINTS = {
+    "bare verifier": [sys.executable, "-S", "-m", "certify.verifier"],
+    "certify verify": [sys.executable, "-m", "certify", "verify"],
+}
+"""The standard-library verifier on a bare interpreter, and the front end with its JSON-Schema step."""
+
+TERMINAL_ACTIVE = re.compile("[\x00-\x09\x0b-\x1f\x7f-\x9f\u061c\u200b-\u200f\u2028-\u202e\u2060-\u206f\ufeff]")
+"""Every control or invisible format character but the newline that ends each line."""
+
+
+def _limit_memory() -> None:
+    resource.setrlimit(resource.RLIMIT_AS, (MEGABYTES * 2 ** 20, MEGABYTES * 2 ** 20))
+
+
+def run(entry: str, *arguments: str, cwd=None) -> subprocess.CompletedProcess:
+    """One entry point on the arguments, within SECONDS and MEGABYTES (a timeout fails the test)."""
+    import os
+
+    root = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+    environment = dict(os.environ, PYTHONPATH=root)
+    started = time.monotonic()
+    try:
+        result = subprocess.run(ENTRY_POINTS[entry] + list(arguments), capture_output=True, timeout=SECONDS,
+                                preexec_fn=_limit_memory, cwd=cwd, env=environment)
+    except subprocess.TimeoutExpired:
+        raise AssertionError(f"{entry} took more than {SECONDS} s on {arguments}")
+    result.seconds = time.monotonic() - started
+    return result
+
+
+def assert_answered(result: subprocess.CompletedProcess, certificates: int = 1, jsonl: bool = False) -> list:
+    """Exit status 0, 1 or 2, no traceback, no terminal-active character, and one verdict per certificate
+    (``--quiet``: lines starting 'accepted: ' or 'rejected: '; ``--jsonl``: JSON objects with the keys file,
+    accepted, reason). Returns the verdicts (lines or parsed objects)."""
+    stdout = result.stdout.decode("utf-8")
+    stderr = result.stderr.decode("utf-8", errors="replace")
+    assert result.returncode in (0, 1, 2), (result.returncode, stderr[-2000:])
+    assert "Traceback" not in stderr and "Error" not in stderr, stderr[-2000:]
+    assert not TERMINAL_ACTIVE.search(stdout), repr(TERMINAL_ACTIVE.search(stdout).group())
+    lines = [line for line in stdout.split("\n") if line]
+    if jsonl:
+        verdicts = [json.loads(line) for line in lines]
+        assert all(set(v) == {"file", "accepted", "reason"} for v in verdicts), verdicts
+    else:
+        verdicts = [line for line in lines if line.startswith(("accepted: ", "rejected: "))]
+    assert len(verdicts) == certificates, stdout[-2000:]
+    return verdicts
