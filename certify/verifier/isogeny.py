@@ -17,13 +17,14 @@ The argument, each step one function below:
 from fractions import Fraction
 from math import gcd
 
-from certify.verifier.arith import (derivative, is_prime, parse_integer, parse_rational, poly_add, poly_mul,
+from certify.verifier.arith import (Budget, derivative, is_prime, parse_integer, parse_rational, poly_add, poly_mul,
                                     poly_scale, poly_sub, rational_roots, trim)
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve
 from certify.verifier.curves import (b_invariants, c_invariants, change_model, count_points, discriminant,
                                      division_polynomials, two_division_polynomial)
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_HINT_PRIME, MAX_KERNEL_DENOMINATOR, MAX_KERNEL_SIZE, MAX_WORK
+from certify.verifier.limits import (MAX_HINT_PRIME, MAX_IDENTITY_SIZE, MAX_IDENTITY_TOTAL, MAX_KERNEL_DENOMINATOR,
+                                     MAX_KERNEL_SIZE, MAX_LIFTING_WORK, MAX_WORK)
 from certify.verifier.models import check_input_model, check_reduced_form
 from certify.verifier.primality import is_probable_prime_certain
 
@@ -77,7 +78,7 @@ def check_isogeny_certificate(cert: dict) -> dict:
     degrees = read_degrees(field(claim, "degrees", list, "claim"), len(curves))
     edges = [read_edge(entry, len(curves), f"evidence.edges[{i}]")
              for i, entry in enumerate(field(evidence, "edges", list, "evidence"))]
-    check_kernel_budget(edges)
+    check_kernel_budget(curves, edges)
     witnesses = read_witnesses(field(evidence, "completeness", list, "evidence"), len(curves))
     check_relies_on(cert, RELIES_ON)
     check_work_budget(witnesses)
@@ -95,8 +96,9 @@ def check_isogeny_certificate(cert: dict) -> dict:
     for edge in edges:
         check_edge(curves, edge)
     j = [j_invariant(model) for model in curves]
+    lifting = Budget(MAX_LIFTING_WORK, "lifting work")
     for (i, ell), witness in witnesses.items():
-        check_witness(curves[i], j[i], i, ell, witness, kernels.get((i, ell), 0))
+        check_witness(curves[i], j[i], i, ell, witness, kernels.get((i, ell), 0), lifting)
     check_connected(len(curves), edges)
     check_degrees(degrees, cyclic_degrees(len(curves), edges))
     return {"curves checked": len(curves), "kernels rechecked": len(edges), "witnesses checked": len(witnesses)}
@@ -165,17 +167,39 @@ def read_edge(entry: dict, size: int, where: str) -> dict:
                         "allows (degree × its digits)", limit=MAX_KERNEL_DENOMINATOR)
     return {"source": read_index(entry, "source", size, where), "target": read_index(entry, "target", size, where),
             "ell": ell, "kernel": h, "change": rationals(field(entry, "change", list, where), 4, f"{where}.change"),
-            "where": where, "size": len(h) * digits}
+            "where": where, "size": len(h) * digits, "x-map digits": x_map_digits(h, common)}
 
 
-def check_kernel_budget(edges: list) -> None:
-    """Refuse at once edges whose kernels together exceed twice MAX_KERNEL_SIZE (degree × digits): the
-    exact isogeny identities cost about that size to the power 1.6, and a genuine class has at most
-    two kernels of degree 163."""
+def x_map_digits(h: list, common: int) -> int:
+    """An estimate of the digits of the x-map's coefficients from the kernel h = H/c alone: N carries the
+    products H[n−1]·H² and c·F·H′² (``x_map``), so digits(H[n−1]) + 2·digits(H) + digits(c), to which the
+    model's digits are added later."""
+    def digits(n: int) -> int:
+        return abs(n).bit_length() * 30103 // 100000 + 1
+    H = [int(c * common) for c in h]
+    return digits(H[-2]) + 2 * max(digits(c) for c in H) + digits(common)
+
+
+def check_kernel_budget(curves: list, edges: list) -> None:
+    """Refuse at once edges whose isogeny identities would cost more than the verifier allows: the kernels
+    together over twice MAX_KERNEL_SIZE (degree × digits), or one identity's size — ℓ × the estimated
+    digits of its x-map (``x_map_digits``, plus the digits of the source model's F, plus 8) — over
+    MAX_IDENTITY_SIZE, or all of them together over MAX_IDENTITY_TOTAL. The identity's cost
+    grows as ℓ² products of numbers of a few times those digits; a genuine class has at most two kernels
+    of degree 163."""
     total = sum(edge["size"] for edge in edges)
     if total > 2 * MAX_KERNEL_SIZE:
         raise Rejection("kernel size", "the kernel polynomials together are larger than the verifier allows",
                         size=total, limit=2 * MAX_KERNEL_SIZE)
+    identities = 0
+    for edge in edges:
+        model_digits = max(abs(c).bit_length() for c in curve_cubic(curves[edge["source"]])) * 30103 // 100000 + 1
+        size = edge["ell"] * (edge["x-map digits"] + model_digits + 8)
+        identities += size
+        if size > MAX_IDENTITY_SIZE or identities > MAX_IDENTITY_TOTAL:
+            raise Rejection("identity size", f"{edge['where']}: the isogeny identities are larger than the verifier "
+                            "allows (ℓ × estimated digits of the x-map, per edge and for all together)",
+                            size=size, total=identities, limit=MAX_IDENTITY_SIZE, total_limit=MAX_IDENTITY_TOTAL)
 
 
 def read_witnesses(entries: list, size: int) -> dict:
@@ -304,14 +328,15 @@ def velu_codomain(a, ell: int, h: list) -> tuple:
 
 
 def x_map(a, ell: int, h: list) -> tuple:
-    """(N, D), integer polynomials, with X = N/D the x-coordinate of the Vélu isogeny with kernel
-    polynomial h from the integral model a.
+    """(N, H, κ, m) with X = N/(κ·H^m) the x-coordinate of the Vélu isogeny with kernel polynomial h from
+    the integral model a: N and H = c·h integer polynomials (c the common denominator of h), κ an
+    integer, m = 2 for ℓ odd and m = 1 for ℓ = 2.
 
     With F = 4x³ + b2x² + 2b4x + b6, t_Q = F′(x_Q)/2 and u_Q = F(x_Q) for ℓ odd, Vélu's
     X = x + Σ (t_Q/(x − x_Q) + u_Q/(x − x_Q)²) sums by Taylor expansion to
-    X = ((ℓx − 2s1)h² − F′h′h/2 + F(h′² − hh″))/h², s1 the sum of the roots of h; writing h = H/c with H
-    integral, N and D are 2c³ times numerator and denominator. For ℓ = 2 the one term is t_Q/(x − x0)
-    with t_Q = F′(x0)/4 (Vélu 1971; Kohel 1996, §2.4)."""
+    X = ((ℓx − 2s1)h² − F′h′h/2 + F(h′² − hh″))/h², s1 the sum of the roots of h; so N is 2c³ times the
+    numerator and κ = 2c. For ℓ = 2 the one term is t_Q/(x − x0) with t_Q = F′(x0)/4 (Vélu 1971;
+    Kohel 1996, §2.4)."""
     f = [int(c) for c in curve_cubic(a)]
     df = derivative(f)
     common = 1
@@ -323,13 +348,13 @@ def x_map(a, ell: int, h: list) -> tuple:
         slope = sum(c * x0 ** i for i, c in enumerate(df))
         scale = 4 * slope.denominator
         return (poly_add(poly_scale(scale, poly_mul([0, 1], H)), [int(slope * slope.denominator) * common]),
-                poly_scale(scale, H))
+                H, scale, 1)
     dH = derivative(H)
     H2 = poly_mul(H, H)
     numerator = poly_add(poly_mul([4 * H[-2], 2 * common * ell], H2), poly_scale(-common, poly_mul(df, poly_mul(dH, H))))
     numerator = poly_add(numerator, poly_scale(2 * common, poly_mul(f, poly_sub(poly_mul(dH, dH),
                                                                                   poly_mul(H, derivative(dH))))))
-    return numerator, poly_scale(2 * common, H2)
+    return numerator, H, 2 * common, 2
 
 
 def curve_cubic(a) -> list:
@@ -362,15 +387,24 @@ def check_edge(curves: list, edge: dict) -> None:
                         "target model", codomain=list(codomain), target=list(curves[edge["target"]]))
 
 
+IDENTITY_PRIME = 2 ** 61 - 1
+"""The prime modulo which the isogeny identity is tried first, so that a false kernel costs a small
+fraction of the exact check."""
+
+
 def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> None:
     """(x, η) ↦ (N/D, η·(N/D)′) maps the source to the codomain, and N/D has degree ℓ.
 
-    The map lands on η′² = F′(X) exactly when F·(N′D − ND′)² = D·(4N³ + b2N²D + 2b4′ND² + b6′D³);
-    it takes O to O since deg N > deg D, so it is an isogeny (Silverman III.4.8) of degree
-    deg(N/D) = ℓ when N and D are coprime, and its kernel is O and the points with D(x) = 0."""
+    The map lands on η′² = F′(X) exactly when F·(N′D − ND′)² = D·Q with Q = 4N³ + b2N²D + 2b4′ND² + b6′D³;
+    with D = κH^m (``x_map``) and V = N′H − m·NH′ this is F·κ·V² = H^(2−m)·Q after dividing by κH^m,
+    and it is multiplied by δ, the common denominator of b4′ and b6′, to stay in integers. The map takes
+    O to O since deg N > deg D, so it is an isogeny (Silverman III.4.8) of degree deg(N/D) = ℓ when N and
+    D are coprime, and its kernel is O and the points with D(x) = 0. The identity is checked modulo
+    IDENTITY_PRIME first and then exactly; only the exact check proves it."""
     if discriminant(codomain) == 0:
         raise Rejection("kernel polynomial", f"{where}: the Vélu codomain is singular")
-    n, d = x_map(source, ell, h)
+    n, H, kappa, m = x_map(source, ell, h)
+    d = poly_scale(kappa, H if m == 1 else poly_mul(H, H))
     if len(n) - 1 != ell or len(d) - 1 != ell - 1:
         raise Rejection("kernel polynomial", f"{where}: the x-map does not have degree ℓ", ell=ell)
     p = next((q for q in range(10 ** 6 + 3, 10 ** 6 + 10 ** 4, 2) if is_prime(q) and n[-1] % q and d[-1] % q), None)
@@ -380,17 +414,34 @@ def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> N
         raise Rejection("kernel polynomial", f"{where}: the x-map has a common factor, so the kernel polynomial "
                         "does not define a subgroup of order ℓ", ell=ell)
     _, b4, b6, _ = b_invariants(codomain)
-    b2 = b_invariants(source)[0]
-    f = [int(c) for c in curve_cubic(source)]
-    wronskian = poly_sub(poly_mul(derivative(n), d), poly_mul(n, derivative(d)))
-    left = poly_mul(f, poly_mul(wronskian, wronskian))
-    nn, dd = poly_mul(n, n), poly_mul(d, d)
-    right = [Fraction(c) for c in poly_mul(d, poly_add(
-        poly_add(poly_scale(4, poly_mul(nn, n)), poly_scale(b2, poly_mul(nn, d))),
-        poly_add(poly_scale(2 * b4, poly_mul(n, dd)), poly_scale(b6, poly_mul(dd, d)))))]
-    if trim([Fraction(c) for c in left]) != trim(right):
-        raise Rejection("kernel polynomial", f"{where}: the kernel polynomial does not define an ℓ-isogeny to the "
-                        "Vélu codomain (the isogeny identity fails)", ell=ell)
+    delta = b4.denominator * b6.denominator // gcd(b4.denominator, b6.denominator)
+    invariants = (int(b_invariants(source)[0]), int(b4 * delta), int(b6 * delta), delta)
+    for modulus in (IDENTITY_PRIME, None):
+        left, right = identity_sides([int(c) for c in curve_cubic(source)], n, H, d, kappa, m, invariants, modulus)
+        if left != right:
+            raise Rejection("kernel polynomial", f"{where}: the kernel polynomial does not define an ℓ-isogeny to "
+                            "the Vélu codomain (the isogeny identity fails"
+                            + (" modulo 2^61 - 1)" if modulus else ")"), ell=ell)
+
+
+def identity_sides(f, n, H, d, kappa: int, m: int, invariants: tuple, modulus) -> tuple:
+    """(δκ·F·V², H^(2−m)·δQ) of ``check_isogeny_identity``, with Q evaluated as N(N(4N + b2D) + 2b4′D²) + b6′D³;
+    modulo ``modulus`` (every product reduced) or exactly when it is None. ``invariants`` is
+    (b2, δb4′, δb6′, δ)."""
+    def reduce(g: list) -> list:
+        return g if modulus is None else trim([c % modulus for c in g])
+
+    def mul(g: list, k: list) -> list:
+        return reduce(poly_mul(g, k))
+
+    b2, b4, b6, delta = invariants
+    f, n, H, d = reduce(f), reduce(n), reduce(H), reduce(d)
+    v = poly_sub(mul(derivative(n), H), poly_scale(m, mul(n, derivative(H))))
+    left = reduce(poly_scale(delta * kappa, mul(f, mul(v, v))))
+    d2 = mul(d, d)
+    q = poly_add(mul(n, poly_add(mul(n, poly_add(poly_scale(4 * delta, n), poly_scale(delta * b2, d))),
+                                 poly_scale(2 * b4, d2))), poly_scale(b6, mul(d2, d)))
+    return left, reduce(q if m == 2 else poly_mul(H, q))
 
 
 def distinct_kernels(edges: list) -> dict:
@@ -414,16 +465,16 @@ def j_invariant(model) -> Fraction:
     return Fraction(c4 ** 3, discriminant(model))
 
 
-def check_witness(model, j: Fraction, index: int, ell: int, witness: dict, listed: int) -> None:
+def check_witness(model, j: Fraction, index: int, ell: int, witness: dict, listed: int, lifting: Budget) -> None:
     """The witness shows that the curve has at most ``listed`` rational ℓ-isogenies."""
     where = f"completeness witness of curve {index}, ℓ = {ell}"
     method = field(witness, "method", str, where)
     if method == "frobenius":
         bound = frobenius_bound(model, ell, witness, where)
     elif method == "x0-roots":
-        bound = x0_roots_bound(j, ell, witness, where)
+        bound = x0_roots_bound(j, ell, witness, where, lifting)
     elif method == "division-roots":
-        bound = division_roots_bound(model, ell, witness, where)
+        bound = division_roots_bound(model, ell, witness, where, lifting)
     elif method == "j-list":
         bound = j_list_bound(j, ell)
     else:
@@ -451,24 +502,24 @@ def stated_roots(witness: dict, where: str) -> list:
     return sorted(parse_rational(v, f"{where}.roots") for v in field(witness, "roots", list, where))
 
 
-def x0_roots_bound(j: Fraction, ell: int, witness: dict, where: str) -> int:
+def x0_roots_bound(j: Fraction, ell: int, witness: dict, where: str, lifting: Budget) -> int:
     """The number of rational roots of P_ℓ(t) − j·t, recomputed exactly from the hint prime."""
     if ell not in X0_NUMERATORS or j in (0, 1728):
         raise Rejection("x0 witness", f"{where}: needs ℓ in {{2, 3, 5, 7, 13}} and j not 0 or 1728", j=j, ell=ell)
     polynomial = poly_sub(poly_scale(j.denominator, X0_NUMERATORS[ell]), [0, j.numerator])
-    roots = rational_roots(polynomial, witness_prime(witness, where), where)
+    roots = rational_roots(polynomial, witness_prime(witness, where), where, lifting)
     if roots != stated_roots(witness, where):
         raise Rejection("x0 witness", f"{where}: the stated roots are not the rational roots", roots=roots)
     return len(roots)
 
 
-def division_roots_bound(model, ell: int, witness: dict, where: str) -> int:
+def division_roots_bound(model, ell: int, witness: dict, where: str, lifting: Budget) -> int:
     """For ℓ = 2 or 3 the kernel polynomials of the rational ℓ-isogenies are the x − x0 with x0 a rational
     root of F (ℓ = 2) or ψ_3 (ℓ = 3): a subgroup {O, ±P} is rational exactly when x(P) is."""
     if ell not in (2, 3):
         raise Rejection("division witness", f"{where}: only for ℓ = 2 or 3", ell=ell)
     polynomial = two_division_polynomial(model) if ell == 2 else division_polynomials(model, 3)[3]
-    roots = rational_roots(polynomial, witness_prime(witness, where), where)
+    roots = rational_roots(polynomial, witness_prime(witness, where), where, lifting)
     if roots != stated_roots(witness, where):
         raise Rejection("division witness", f"{where}: the stated roots are not the rational roots", roots=roots)
     return len(roots)
