@@ -1,10 +1,12 @@
 """``certify batch FILE -o OUT [--workers N] [--only KIND] [--cluster ADDRESS] [--timeout S]``.
 
-FILE has one curve per line in the CURVE syntax; blank lines and everything from ``#`` on are
-skipped. An optional label follows the curve: after the closing ``]`` of a coefficient list, or
-after a tab for an equation. Each curve gets both certificates (or the one ``--only`` names), kept
-in OUT (see ``certify.store``) under the curve's coefficients as given, with the label in the
-certificate's ``metadata``. A rerun skips what OUT holds and retries the rest, failures included.
+FILE has one curve per line in the CURVE syntax; blank lines and lines beginning with ``#`` are
+skipped. An optional label follows the curve — after a tab, after two or more spaces, or after the
+closing ``]`` of a coefficient list (with optional punctuation such as ``:`` or ``,``) — and is the
+whole rest of the line. Each curve gets both certificates (or the one ``--only`` names), kept in OUT
+(see ``certify.store``) under the curve's coefficients as given, with the label and the line number
+in the certificate's ``metadata``. A curve given on two lines is certified once and reported with
+both labels. A rerun skips what OUT holds and retries the rest, failures included.
 The certificates are computed in N local processes (default: all cores) or, with ``--cluster``, by
 the workers of a Dask distributed scheduler; only the main process writes to OUT.
 """
@@ -12,6 +14,7 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import signal
 import sqlite3
 import subprocess
@@ -37,23 +40,44 @@ class BatchInputError(Exception):
 
 @dataclass(frozen=True)
 class Task:
-    """One certificate to make: the curve '[a1,a2,a3,a4,a6]', its kind, its label, the time limit."""
+    """One certificate to make: the curve '[a1,a2,a3,a4,a6]', its kind, its label, the time limit, and the
+    line of the batch file it comes from (None outside a batch)."""
     key: str
     kind: str
     label: str
     timeout: float | None
+    line: int | None = None
+
+
+LABEL_LEAD = re.compile(r"[\s:;,|]*(?:[-\u2013\u2014]\s+)?")
+"""What may separate a label from the closing ']': spaces, ':', ';', ',', '|', or a dash and a space."""
+
+
+def _is_curve(text: str) -> bool:
+    try:
+        parse_curve(text)
+    except CurveInputError:
+        return False
+    return True
 
 
 def split_line(line: str) -> tuple[str, str] | None:
-    """(CURVE text, label) of a batch line, or None for a blank or comment line."""
-    line = line.split("#", 1)[0].strip()
-    if not line:
+    """(CURVE text, label) of a batch line, or None for a blank or comment line. The label is the whole
+    rest of the line after a tab, after the closing ']' of a coefficient list, or after the first run of
+    two or more spaces that ends a readable curve."""
+    line = line.strip()
+    if not line or line.startswith("#"):
         return None
+    if "\t" in line:
+        curve, _, label = line.partition("\t")
+        return curve.strip(), label.strip()
     if line.startswith("["):
         end = line.find("]") + 1 or len(line)
-        return line[:end], line[end:].strip()
-    curve, _, label = line.partition("\t")
-    return curve.strip(), label.strip()
+        return line[:end], line[end:][LABEL_LEAD.match(line[end:]).end():].strip()
+    for gap in re.finditer(r" {2,}", line):
+        if _is_curve(line[:gap.start()]):
+            return line[:gap.start()], line[gap.end():]
+    return line, ""
 
 
 def curve_key(a) -> str:
@@ -102,6 +126,8 @@ def certify_one(task: Task) -> dict:
         return {"task": task, "error": f"{type(error).__name__}: {str(error).splitlines()[0][:200] if str(error) else ''}"}
     if task.label:
         cert["metadata"]["label"] = task.label
+    if task.line is not None:
+        cert["metadata"]["input_line"] = str(task.line)
     return {"task": task, "document": to_json(cert), "digest": digest(cert)}
 
 
@@ -210,10 +236,11 @@ def certify_all(tasks, workers: int | None, cluster: str | None):
 
 
 class Progress:
-    """Curves done, rate and time left: a bar redrawn on a terminal, a log line every 10 s otherwise."""
+    """Curves done, rate and time left: a bar redrawn on a terminal, a log line every 10 s otherwise,
+    each beginning with the command's ``name``."""
 
-    def __init__(self, total: int, done: int, stream=sys.stderr):
-        self.total, self.done, self.stream = total, done, stream
+    def __init__(self, total: int, done: int, stream=sys.stderr, name: str = "batch"):
+        self.total, self.done, self.stream, self.name = total, done, stream, name
         self.start, self.first, self.logged = time.monotonic(), done, 0.0
         self.terminal = stream.isatty()
 
@@ -232,7 +259,7 @@ class Progress:
             self.stream.flush()
         elif now - self.logged >= 10 or self.done == self.total:
             self.logged = now
-            print(f"batch: {self.line()}", file=self.stream, flush=True)
+            print(f"{self.name}: {self.line()}", file=self.stream, flush=True)
 
     def close(self) -> None:
         if self.terminal:
@@ -271,13 +298,16 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
     kinds = [only] if only else [kind for kind in KINDS if kind in certifiers()]
     lines = read_batch(path)
     store = open_store(out)
-    tasks, failures, labels = [], [], {}
-    for _, key, label, error in lines:
+    tasks, failures, labels, first_line = [], [], {}, {}
+    for number, key, label, error in lines:
         if error:
             failures.append(error)
-        elif key not in labels:
-            labels[key] = label
-            tasks += [Task(key, kind, label, timeout) for kind in kinds if not store.has(key, kind)]
+        elif key in labels:
+            print(f"batch: line {number} repeats the curve {key} of line {first_line[key]} (labels "
+                  f"{labels[key]!r} and {label!r}); it is certified once, labelled {labels[key]!r}", file=sys.stderr)
+        else:
+            labels[key], first_line[key] = label, number
+            tasks += [Task(key, kind, label, timeout, number) for kind in kinds if not store.has(key, kind)]
     open_kinds = Counter(task.key for task in tasks)
     progress = Progress(len(labels), len(labels) - len(open_kinds))
     interrupted = []

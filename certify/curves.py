@@ -40,6 +40,18 @@ class FactoringTooHard(CurveInputError):
 Change = tuple  # (u, r, s, t) as Fractions
 
 
+def _check_size(value: Fraction) -> Fraction:
+    """``value`` itself, once its numerator and denominator are known to be within MAX_COEFFICIENT_DIGITS
+    (compared as integers: no decimal conversion of a huge number is ever attempted)."""
+    if abs(value.numerator) >= _DIGIT_BOUND or value.denominator >= _DIGIT_BOUND:
+        raise CurveInputError(TOO_MANY_DIGITS)
+    return value
+
+
+_DIGIT_BOUND = 10 ** MAX_COEFFICIENT_DIGITS
+TOO_MANY_DIGITS = f"a coefficient has more than {MAX_COEFFICIENT_DIGITS} digits in its numerator or denominator, the limit"
+
+
 def _rational(token: str) -> Fraction:
     """Parse one coefficient written as an integer or a fraction p/q, within the size limit."""
     token = token.strip()
@@ -47,50 +59,156 @@ def _rational(token: str) -> Fraction:
     if not match:
         raise CurveInputError(f"not a rational number: {token!r}")
     sign, numerator, denominator = match.groups()
-    for digits in (numerator, denominator or "1"):
-        if len(digits) > MAX_COEFFICIENT_DIGITS:
-            raise CurveInputError(f"coefficient has {len(digits)} digits; the limit is {MAX_COEFFICIENT_DIGITS}")
+    if max(len(numerator), len(denominator or "")) > MAX_COEFFICIENT_DIGITS:
+        raise CurveInputError(TOO_MANY_DIGITS)
     if denominator is not None and int(denominator) == 0:
         raise CurveInputError(f"zero denominator in {token!r}")
     value = Fraction(int(numerator), int(denominator or 1))
     return -value if sign == "-" else value
 
 
-# --- the Weierstrass-equation syntax: sums of terms c·x^i·y^j on each side of '=' ---
-_TERM = re.compile(r"\s*([+-])?\s*([^+-]+)")
-_FACTOR = re.compile(r"^(?:(\d+(?:/\d+)?)|([xy])(?:\^(\d+))?)$")
+# --- the Weierstrass-equation syntax: polynomials in x and y over Q on each side of '=' ---
+Polynomial = dict  # {(i, j): coefficient of x^i y^j}, no zero coefficients
+
+_SPELLINGS = str.maketrans({"\u2212": "-", "\u2013": "-", "\u00b7": "*", "\u22c5": "*", "\u00d7": "*",
+                            "X": "x", "Y": "y"})
+"""Other ways of writing minus, times and the variables, read as -, * and x, y."""
+
+_SUPERSCRIPTS = str.maketrans("\u2070\u00b9\u00b2\u00b3\u2074\u2075\u2076\u2077\u2078\u2079", "0123456789")
+_TOKEN = re.compile(r"\s*(?:(\d+)|([xy])|(\*\*|[-+*/^()=]))")
+
+MAX_EXPONENT = 3
+"""Highest power accepted: no monomial of a Weierstrass equation has degree over 3."""
 
 
-def _side_terms(side: str) -> dict[tuple[int, int], Fraction]:
-    """Read one side of an equation into {(i, j): coefficient of x^i y^j}."""
-    side = side.replace("**", "^").replace(" ", "")
-    if not side:
-        raise CurveInputError("empty side in the equation")
-    terms: dict[tuple[int, int], Fraction] = {}
-    position = 0
-    while position < len(side):
-        match = _TERM.match(side, position)
-        if not match or match.end() == position:
-            raise CurveInputError(f"cannot read the equation near {side[position:]!r}")
-        sign, body = match.groups()
-        if sign is None and position > 0:
-            raise CurveInputError(f"missing + or - before {body!r}")
+def _tokens(text: str) -> list:
+    """[(kind, text)] with kind 'number', 'variable' or the operator itself; superscript digits become ^n."""
+    text = re.sub("[\u2070\u00b9\u00b2\u00b3\u2074-\u2079]+", lambda m: "^" + m.group().translate(_SUPERSCRIPTS),
+                  text.translate(_SPELLINGS))
+    out, position = [], 0
+    while position < len(text):
+        if text[position:].strip() == "":
+            break
+        match = _TOKEN.match(text, position)
+        if not match:
+            raise CurveInputError(f"cannot read the equation near {text[position:].strip()[:40]!r}")
+        number, variable, operator = match.groups()
+        out.append(("number", number) if number else ("variable", variable) if variable
+                   else ("^" if operator == "**" else operator, operator))
         position = match.end()
-        coefficient, i, j = Fraction(1), 0, 0
-        for factor in body.split("*"):
-            parts = _FACTOR.match(factor)
-            if not parts:
-                raise CurveInputError(f"cannot read the factor {factor!r} (use numbers, x, y, ^ and *)")
-            number, variable, power = parts.groups()
-            if number is not None:
-                coefficient *= _rational(number)
+    return out
+
+
+def _multiply(f: Polynomial, g: Polynomial) -> Polynomial:
+    """The product, refused as soon as a power of x over 3 or of y over 2 appears."""
+    product: Polynomial = {}
+    for (i, j), c in f.items():
+        for (k, l), d in g.items():
+            if i + k > 3 or j + l > 2:
+                raise CurveInputError(f"x^{i + k}*y^{j + l} does not occur in a Weierstrass equation"
+                                      if j + l else f"x^{i + k} does not occur in a Weierstrass equation")
+            product[(i + k, j + l)] = _check_size(product.get((i + k, j + l), Fraction(0)) + c * d)
+    return {m: c for m, c in product.items() if c}
+
+
+def _add(f: Polynomial, g: Polynomial, sign: int = 1) -> Polynomial:
+    total = dict(f)
+    for m, c in g.items():
+        total[m] = _check_size(total.get(m, Fraction(0)) + sign * c)
+    return {m: c for m, c in total.items() if c}
+
+
+class _EquationReader:
+    """Recursive descent over the tokens of one side of the equation:
+
+        sum     := [+|-] product {(+|-) product}
+        product := power {[*|/] power}        (no sign: implicit multiplication, as in 2x, xy, (3/16)y, x(x-1))
+        power   := atom [^ n]                  (n ≤ MAX_EXPONENT for x and y)
+        atom    := integer | x | y | ( sum )
+
+    Division is by a non-zero constant only; products and quotients go from left to right, so
+    3/16y is (3/16)·y, as the coefficient notation of a printed equation means."""
+
+    def __init__(self, tokens: list):
+        self.tokens, self.position = tokens, 0
+
+    def peek(self):
+        return self.tokens[self.position][0] if self.position < len(self.tokens) else None
+
+    def take(self):
+        self.position += 1
+        return self.tokens[self.position - 1]
+
+    def rest(self) -> str:
+        return " ".join(text for _, text in self.tokens[self.position:])[:40]
+
+    def side(self) -> Polynomial:
+        if self.peek() is None:
+            raise CurveInputError("empty side in the equation")
+        value = self.sum()
+        if self.peek() is not None:
+            raise CurveInputError(f"cannot read the equation near {self.rest()!r}")
+        return value
+
+    def sum(self) -> Polynomial:
+        sign = -1 if self.peek() == "-" else 1
+        if self.peek() in ("+", "-"):
+            self.take()
+        total = _add({}, self.product(), sign)
+        while self.peek() in ("+", "-"):
+            sign = -1 if self.take()[0] == "-" else 1
+            total = _add(total, self.product(), sign)
+        return total
+
+    def product(self) -> Polynomial:
+        value = self.power()
+        while self.peek() in ("*", "/", "number", "variable", "("):
+            if self.peek() == "number":
+                raise CurveInputError(f"missing * or an operator before {self.tokens[self.position][1]!r}")
+            operator = self.take()[0] if self.peek() in ("*", "/") else "*"
+            factor = self.power()
+            if operator == "*":
+                value = _multiply(value, factor)
+            elif set(factor) - {(0, 0)}:
+                raise CurveInputError("division by a polynomial in x or y (only by a number)")
+            elif not factor:
+                raise CurveInputError("division by zero in the equation")
             else:
-                exponent = int(power or 1)
-                if exponent > 3:
-                    raise CurveInputError(f"{variable}^{exponent} does not occur in a Weierstrass equation")
-                i, j = (i + exponent, j) if variable == "x" else (i, j + exponent)
-        terms[(i, j)] = terms.get((i, j), Fraction(0)) + (-coefficient if sign == "-" else coefficient)
-    return terms
+                value = _multiply(value, {(0, 0): 1 / factor[(0, 0)]})
+        return value
+
+    def power(self) -> Polynomial:
+        base = self.atom()
+        if self.peek() != "^":
+            return base
+        self.take()
+        if self.peek() != "number":
+            raise CurveInputError(f"an exponent must be a whole number, not {self.rest()!r}")
+        digits = self.take()[1]
+        exponent = int(digits) if len(digits) <= 3 else MAX_EXPONENT + 1
+        if exponent > MAX_EXPONENT:
+            raise CurveInputError(f"the power {exponent} does not occur in a Weierstrass equation")
+        value = {(0, 0): Fraction(1)}
+        for _ in range(exponent):
+            value = _multiply(value, base)
+        return value
+
+    def atom(self) -> Polynomial:
+        kind = self.peek()
+        if kind is None:
+            raise CurveInputError("the equation ends in the middle of a term")
+        kind, text = self.take()
+        if kind == "number":
+            return {(0, 0): _rational(text)} if text.strip("0") else {}
+        if kind == "variable":
+            return {(1, 0) if text == "x" else (0, 1): Fraction(1)}
+        if kind == "(":
+            inner = self.sum()
+            if self.peek() != ")":
+                raise CurveInputError("a '(' is not closed")
+            self.take()
+            return inner
+        raise CurveInputError(f"cannot read the equation near {text + ' ' + self.rest()!r}")
 
 
 def _from_equation(text: str) -> tuple[Fraction, ...]:
@@ -98,10 +216,7 @@ def _from_equation(text: str) -> tuple[Fraction, ...]:
     if text.count("=") != 1:
         raise CurveInputError("a Weierstrass equation needs exactly one '='")
     left, right = text.split("=")
-    terms = _side_terms(left)
-    for monomial, coefficient in _side_terms(right).items():
-        terms[monomial] = terms.get(monomial, Fraction(0)) - coefficient
-    terms = {m: c for m, c in terms.items() if c != 0}
+    terms = _add(_EquationReader(_tokens(left)).side(), _EquationReader(_tokens(right)).side(), -1)
     if terms.get((0, 2)) is None or terms.get((3, 0)) is None or terms[(0, 2)] != -terms[(3, 0)]:
         raise CurveInputError("the equation must have the form y^2 + a1*x*y + a3*y = x^3 + a2*x^2 + a4*x + a6")
     scale = terms.pop((0, 2))
@@ -112,12 +227,49 @@ def _from_equation(text: str) -> tuple[Fraction, ...]:
         if monomial not in allowed:
             raise CurveInputError(f"the term x^{monomial[0]}*y^{monomial[1]} does not occur in a Weierstrass equation")
         index = allowed[monomial]
-        a[index] = coefficient / scale if index in (0, 2) else -coefficient / scale
+        a[index] = _check_size(coefficient / scale if index in (0, 2) else -coefficient / scale)
     return tuple(a)
 
 
+def _from_list(text: str) -> tuple[Fraction, ...]:
+    """Coefficients of [a1,a2,a3,a4,a6] or [A,B] (y² = x³ + Ax + B)."""
+    entries = text[1:-1].split(",")
+    if len(entries) > 1 and not entries[-1].strip():
+        raise CurveInputError(f"a trailing comma after the last coefficient in {text[:60]!r}: remove it")
+    if any(not entry.strip() for entry in entries):
+        raise CurveInputError(f"an empty coefficient (two commas in a row?) in {text[:60]!r}")
+    return curve_from_numbers(entries)
+
+
+def curve_from_numbers(values) -> tuple[Fraction, ...]:
+    """a1..a6 from a list of 5 numbers [a1, a2, a3, a4, a6] or 2 [A, B] (y² = x³ + Ax + B), each an int, a
+    Fraction or a string '-3' or '3/16'; floats (inexact) and bools are refused, and so is a singular curve."""
+    if not isinstance(values, (list, tuple)):
+        raise CurveInputError(f"a curve is CURVE text or a list of 5 or 2 numbers, not a {type(values).__name__}")
+    if len(values) not in (2, 5):
+        raise CurveInputError(f"expected 5 coefficients [a1,a2,a3,a4,a6] or 2 [A,B], got {len(values)}")
+    numbers = []
+    for value in values:
+        if isinstance(value, str):
+            numbers.append(_rational(value))
+        elif isinstance(value, (int, Fraction)) and not isinstance(value, bool):
+            numbers.append(_check_size(Fraction(value)))
+        else:
+            raise CurveInputError(f"not a rational number: {value!r} (give an int, a Fraction or a string "
+                                  "such as '3/16')")
+    return _nonsingular(tuple(numbers) if len(numbers) == 5 else (Fraction(0), Fraction(0), Fraction(0), *numbers))
+
+
+def _nonsingular(a: tuple) -> tuple:
+    """``a`` itself, once its discriminant is known not to be 0."""
+    if Curve(a).discriminant == 0:
+        raise CurveInputError("the curve is singular (its discriminant is 0)")
+    return a
+
+
 def parse_curve(text: str) -> tuple[Fraction, ...]:
-    """Read CURVE: ``[a1,a2,a3,a4,a6]``, ``[A,B]`` (y² = x³ + Ax + B) or a Weierstrass equation.
+    """Read CURVE: ``[a1,a2,a3,a4,a6]``, ``[A,B]`` (y² = x³ + Ax + B) or a Weierstrass equation, written
+    as people type it (``y^2 + xy - (3/16)y = x^3 - (3/16)x^2``, ``y² = x(x-1)(x+1)``, ``Y**2 = X**3 - X/4``).
 
     Returns the five coefficients a1..a6 as Fractions; raises CurveInputError with a one-line
     reason for anything else, including singular curves.
@@ -125,22 +277,11 @@ def parse_curve(text: str) -> tuple[Fraction, ...]:
     if len(text) > MAX_INPUT_LENGTH:
         raise CurveInputError(f"the curve is {len(text)} characters long; the limit is {MAX_INPUT_LENGTH}")
     stripped = text.strip()
-    if "=" in stripped:
-        a = _from_equation(stripped)
-    elif stripped.startswith("[") and stripped.endswith("]"):
-        entries = [entry for entry in stripped[1:-1].split(",")]
-        if len(entries) == 5:
-            a = tuple(_rational(entry) for entry in entries)
-        elif len(entries) == 2:
-            A, B = (_rational(entry) for entry in entries)
-            a = (Fraction(0), Fraction(0), Fraction(0), A, B)
-        else:
-            raise CurveInputError(f"expected 5 coefficients [a1,a2,a3,a4,a6] or 2 [A,B], got {len(entries)}")
-    else:
-        raise CurveInputError("expected [a1,a2,a3,a4,a6], [A,B] or an equation such as y^2 + x*y = x^3 - x^2 + 3")
-    if Curve(a).discriminant == 0:
-        raise CurveInputError("the curve is singular (its discriminant is 0)")
-    return a
+    if stripped.startswith("[") and stripped.endswith("]"):
+        return _from_list(stripped)
+    if "=" not in stripped:
+        raise CurveInputError("expected [a1,a2,a3,a4,a6], [A,B] or an equation such as y^2 + xy = x^3 - x^2 + 3")
+    return _nonsingular(_from_equation(stripped))
 
 
 def format_rational(value: Fraction) -> str:
@@ -263,9 +404,8 @@ def _valuation(n: int, p: int) -> int:
     return v
 
 
-def _primes_dividing(n: int, purpose: str = "to find the minimal model") -> list[int]:
-    """The prime factors of n, by PARI within FACTORING_SECONDS (the certifier may use generic algebra);
-    ``purpose`` ends the message of FactoringTooHard."""
+def _primes_dividing(n: int) -> list[int]:
+    """The prime factors of n, by PARI within FACTORING_SECONDS (the certifier may use generic algebra)."""
     if abs(n) <= 1:
         return []
     from cysignals.alarm import AlarmInterrupt, alarm, cancel_alarm
@@ -277,7 +417,7 @@ def _primes_dividing(n: int, purpose: str = "to find the minimal model") -> list
         return [int(p) for p in pari.factor(abs(n))[0]]
     except AlarmInterrupt:
         raise FactoringTooHard(f"cannot factor a {abs(n).bit_length() * 30103 // 100000 + 1}-digit integer within {FACTORING_SECONDS} s "
-                               + purpose) from None
+                               "to find the minimal model") from None
     finally:
         cancel_alarm()
 

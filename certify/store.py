@@ -15,6 +15,7 @@ import sqlite3
 import time
 
 from certify.certificates import write_atomically
+from certify.verifier.limits import MAX_FILE_BYTES
 from certify.verifier.sources import STORE_COLUMNS, STORE_SUFFIX, STORE_TABLE
 
 LONGEST_STEM = 100
@@ -24,16 +25,61 @@ FAILURES_FILE = "failures.jsonl"
 
 
 def file_stem(key: str) -> str:
-    """A file-name stem for the curve '[a1,a2,a3,a4,a6]': '1,-3_16,-3_16,0,0' ('/' becomes '_'), or,
-    when that is longer than LONGEST_STEM, its start and 16 hex digits of the key's SHA-256."""
+    """A file-name stem for the curve '[a1,a2,a3,a4,a6]': '1,-3_16,-3_16,0,0' ('/' becomes '_'), with an 'E'
+    in front when it would begin with '-' ('E-7_3,-10,-10,0,0'), so that no command mistakes the file for
+    an option; when longer than LONGEST_STEM, its start and 16 hex digits of the key's SHA-256."""
     stem = key.strip("[]").replace("/", "_")
+    if stem.startswith("-"):
+        stem = "E" + stem
     if len(stem) <= LONGEST_STEM:
         return stem
     return stem[:LONGEST_STEM - 17] + "~" + hashlib.sha256(key.encode("ascii")).hexdigest()[:16]
 
 
+def file_name(key: str, kind: str) -> str:
+    """The file of the certificate of this kind for the curve '[a1,a2,a3,a4,a6]': '<stem>.<kind>.json'."""
+    return f"{file_stem(key)}.{kind}.json"
+
+
 class StoreError(Exception):
     """OUT cannot be opened as a store."""
+
+
+class StoreReader:
+    """Reading certificates back from a store or directory that ``certify batch`` wrote (``certify audit
+    --store``): ``get(key, kind)`` gives (document text, {"digest": recorded digest} or {}) or None."""
+
+    def __init__(self, path: str):
+        self.path, self.connection = path, None
+        if path.endswith(STORE_SUFFIX):
+            if not os.path.isfile(path):
+                raise StoreError(f"cannot use {path} as a store: no such file")
+            try:
+                self.connection = sqlite3.connect(f"file:{path}?mode=ro", uri=True)
+                self.connection.execute(f"SELECT document, digest FROM {STORE_TABLE} LIMIT 1").fetchall()
+            except sqlite3.Error as error:
+                raise StoreError(f"cannot use {path} as a store: {error}") from None
+        elif not os.path.isdir(path):
+            raise StoreError(f"cannot use {path} as a store: not a directory or a {STORE_SUFFIX} file")
+
+    def get(self, key: str, kind: str):
+        if self.connection is not None:
+            row = self.connection.execute(f"SELECT document, digest FROM {STORE_TABLE} WHERE curve = ? AND kind = ?",
+                                          (key, kind)).fetchone()
+            return None if row is None else (row[0], {"digest": row[1]})
+        try:
+            with open(os.path.join(self.path, file_name(key, kind)), encoding="utf-8") as handle:
+                text = handle.read(MAX_FILE_BYTES + 1)
+        except (OSError, UnicodeDecodeError):
+            return None
+        return (text, {}) if 0 < len(text) <= MAX_FILE_BYTES else None
+
+    def __enter__(self):
+        return self
+
+    def __exit__(self, *_):
+        if self.connection is not None:
+            self.connection.close()
 
 
 def open_store(path: str):
@@ -54,7 +100,7 @@ class DirectoryStore:
         self.present = {entry.name for entry in os.scandir(path) if entry.stat().st_size > 0}
 
     def name(self, key: str, kind: str) -> str:
-        return f"{file_stem(key)}.{kind}.json"
+        return file_name(key, kind)
 
     def has(self, key: str, kind: str) -> bool:
         """Whether the certificate of this curve and kind is already stored."""

@@ -180,3 +180,45 @@ def test_whole_table_into_a_store_verifies_and_matches_cremonas_classes(tmp_path
     for curve, kind, label, document, _ in store_rows(store):
         if kind == "isogeny-class":
             assert len(json.loads(document)["claim"]["curves"]) == sizes[label.rsplit("-", 1)[0]], curve
+
+
+@pytest.mark.parametrize("line, parts", [
+    ("y^2 = x^3 - x\tC2", ("y^2 = x^3 - x", "C2")),                    # after a tab
+    ("y^2 = x^3 - x  C2", ("y^2 = x^3 - x", "C2")),                    # after two spaces
+    ("y^2  =  x^3 - x   the curve C2", ("y^2  =  x^3 - x", "the curve C2")),  # spaced equation, then the label
+    ("[0,1]  C4", ("[0,1]", "C4")),                                    # after the closing ]
+    ("[0,1]: C4", ("[0,1]", "C4")),
+    ("[0,1], C4", ("[0,1]", "C4")),
+    ("[0,1] - C4", ("[0,1]", "C4")),
+    ("[0,1] curve #3 of Table 2", ("[0,1]", "curve #3 of Table 2")),   # the whole rest of the line
+    ("y^2 = x^3 + 1", ("y^2 = x^3 + 1", "")),
+    ("  # a comment", None),
+    ("", None),
+])
+def test_batch_labels_after_a_tab_two_spaces_or_the_closing_bracket(line, parts):
+    """Issue 11, item 2: where a label may start, and that it is the whole rest of the line."""
+    from certify.batch import split_line
+
+    assert split_line(line) == parts
+
+
+def test_a_repeated_curve_is_reported_with_both_labels(tmp_path):
+    """Two lines with the same curve: certified once, and stderr names both lines and both labels."""
+    source = tmp_path / "curves.txt"
+    source.write_text("[0,0,0,-1,0]  C2\ny^2 = x^3 - 1  Z6\ny^2 = x^3 - x\tsame as C2\n")
+    run = certify("batch", str(source), "-o", str(tmp_path / "out"), "--only", "torsion", "--workers", "1")
+    assert run.returncode == 0, run.stderr
+    assert "line 3 repeats the curve [0,0,0,-1,0] of line 1" in run.stderr
+    assert "'C2'" in run.stderr and "'same as C2'" in run.stderr
+    assert len(list((tmp_path / "out").glob("*.json"))) == 2
+
+
+def test_file_names_cannot_be_mistaken_for_options(tmp_path):
+    """A curve whose first coefficient is negative gets a file that certify verify takes as it is."""
+    source = tmp_path / "curves.txt"
+    source.write_text("[-7/3,-10,-10,0,0]  C4\n")
+    out = tmp_path / "out"
+    assert certify("batch", str(source), "-o", str(out), "--only", "torsion").returncode == 0
+    (name,) = [path.name for path in out.glob("*.json")]
+    assert name == "E-7_3,-10,-10,0,0.torsion.json"
+    assert certify("verify", "--quiet", name, cwd=out).returncode == 0
