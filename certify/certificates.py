@@ -1,4 +1,4 @@
-"""Writing certificates: canonical JSON text and atomic files."""
+"""Making and writing certificates: the checked certifiers, canonical JSON text and atomic files."""
 from __future__ import annotations
 
 import contextlib
@@ -7,19 +7,33 @@ import os
 import sys
 import tempfile
 
+from certify.curves import Curve, CurveInputError
+from certify.verifier.limits import MAX_DIGITS
+
 
 def to_json(cert: dict) -> str:
     """The certificate as indented JSON text with a final newline (all numbers are already strings)."""
     return json.dumps(cert, indent=1, ensure_ascii=False) + "\n"
 
 
+class OutputError(OSError):
+    """An output file cannot be written (a read-only or missing folder, a directory in its place, a full
+    disk); the message names the path and the reason on one line."""
+
+    def __init__(self, path: str, error: OSError):
+        super().__init__(f"cannot write {path}: {error.strerror or error}")
+
+
 def write_atomically(path: str, text: str, durable: bool = True) -> None:
     """Write ``text`` to ``path`` through a temporary file in the same folder and a rename, so that an
     interrupt or a full disk never leaves a half-written file under ``path``. ``durable`` also waits
     for the disk (fsync) before the rename, against power cuts; a writer of many files may instead
-    sync once at the end."""
+    sync once at the end. Raises OutputError when the file cannot be written."""
     folder = os.path.dirname(os.path.abspath(path))
-    handle, temporary = tempfile.mkstemp(dir=folder, prefix=".certify-", suffix=".tmp")
+    try:
+        handle, temporary = tempfile.mkstemp(dir=folder, prefix=".certify-", suffix=".tmp")
+    except OSError as error:
+        raise OutputError(path, error) from None
     try:
         with os.fdopen(handle, "w", encoding="utf-8") as out:
             out.write(text)
@@ -27,9 +41,11 @@ def write_atomically(path: str, text: str, durable: bool = True) -> None:
             if durable:
                 os.fsync(out.fileno())
         os.replace(temporary, path)
-    except BaseException:  # an interrupt may also come just after the rename, when nothing is left to remove
+    except BaseException as error:  # an interrupt may also come just after the rename, when nothing is left to remove
         with contextlib.suppress(FileNotFoundError):
             os.unlink(temporary)
+        if isinstance(error, OSError):
+            raise OutputError(path, error) from None
         raise
 
 
@@ -67,6 +83,45 @@ def certifiers() -> dict:
     except ImportError:
         return kinds
     return {**kinds, "isogeny-class": certify_isogeny_class}
+
+
+class NotCertifiable(CurveInputError):
+    """The curve is readable and non-singular, but its certificate would fall outside what the verifier
+    accepts (``certify.verifier.limits``), so certify refuses it rather than write a certificate the
+    verifier would reject."""
+
+
+def check_model_size(a) -> None:
+    """Refuse at once a curve whose integral model — written into every certificate, and scaling a6 by
+    up to the sixth power of the denominators — has a coefficient of more than the verifier's MAX_DIGITS."""
+    bound = 10 ** MAX_DIGITS
+    model, _ = Curve(a).integral_model()
+    if any(abs(c.numerator) >= bound for c in model.a):
+        raise NotCertifiable(f"the integral model of this curve has a coefficient of over {MAX_DIGITS} digits, "
+                             f"more than the verifier reads (certify.verifier.limits.MAX_DIGITS)")
+
+
+def certify_checked(kind: str, a) -> dict:
+    """The stamped certificate of ``kind`` ('torsion' or 'isogeny-class') for the coefficients ``a``
+    (five Fractions, as parse_curve returns them), rechecked by the verifier before it is returned:
+    a certificate the verifier would reject, over its limits say, raises NotCertifiable with the
+    rejection on one line instead."""
+    from certify.verifier import verify
+    from certify.verifier.errors import Rejection
+
+    check_model_size(a)
+    try:
+        cert = stamp(certifiers()[kind](a))
+    except ValueError as error:
+        if "integer string conversion" not in str(error):
+            raise
+        raise NotCertifiable(f"a number in the {kind} certificate would have over 4300 digits; the verifier "
+                             f"reads at most {MAX_DIGITS}") from None
+    try:
+        verify(cert)
+    except Rejection as rejection:
+        raise NotCertifiable(f"the {kind} certificate would not be accepted by the verifier: {rejection}") from None
+    return cert
 
 
 class NotAccepted(Exception):

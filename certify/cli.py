@@ -2,15 +2,21 @@
 ``audit``, ``demo``.
 
 Input errors (malformed, singular or over-large curves, certificates the verifier does not accept
-where a command builds on them) exit with status 2 and one line on stderr.
+where a command builds on them), outputs that cannot be written and unusable cluster addresses exit
+with status 2 and one line on stderr, never a traceback.
 """
 from __future__ import annotations
 
 import argparse
+import re
+import socket
 import sys
 
+from certify import __version__
 from certify.curves import Curve, CurveInputError, parse_curve
-from certify.certificates import NotAccepted, accepted_certificates, emit, stamp, to_json, write_atomically
+from certify.certificates import (NotAccepted, accepted_certificates, certify_checked, emit, stamp, to_json,
+                                  write_atomically)
+from certify.conductor import certify_conductor
 from certify.verifier.digest import digest
 from certify.verifier.report import describe_claim
 
@@ -22,37 +28,29 @@ def fail(message: str) -> int:
 
 
 def certify_command(kind: str, text: str, output: str | None) -> int:
-    """Certify one curve; the certificate goes to ``output`` (atomically) or to stdout, its digest to stderr."""
+    """Certify one curve; the certificate goes to ``output`` (atomically) or to stdout, and the answer in
+    words and the digest to stderr, so that stdout holds the JSON alone."""
     try:
         a = parse_curve(text)
-    except CurveInputError as error:
-        return fail(str(error))
-    if kind == "torsion":
-        from certify.torsion import certify_torsion as build
-    elif kind == "conductor":
-        from certify.conductor import certify_conductor as build
-    else:
-        from certify.isogeny.certificate import certify_isogeny_class as build
-    try:
-        cert = stamp(build(a))
+        cert = stamp(certify_conductor(a)) if kind == "conductor" else certify_checked(kind, a)
     except CurveInputError as error:
         return fail(str(error))
     emit(to_json(cert), output)
-    if output is not None:
-        print(f"{Curve(a).equation()}: {describe_claim(cert)} — written to {output}", file=sys.stderr)
+    written = f" — written to {output}" if output is not None else ""
+    print(f"{Curve(a).equation()}: {describe_claim(cert)}{written}", file=sys.stderr)
     print(f"digest {digest(cert)}", file=sys.stderr)
     return 0
 
 
 def table_command(sources: list, form: str, document: bool, output: str | None) -> int:
-    """Tabulate accepted certificates."""
-    from certify.tables import render
+    """Tabulate accepted certificates; the caption names the digest of each bundle among the sources."""
+    from certify.tables import TableError, bundle_digests, render
 
     try:
-        certificates = accepted_certificates(sources)
-    except NotAccepted as error:
+        text = render(accepted_certificates(sources), form, document, bundle_digests(sources))
+    except (NotAccepted, TableError) as error:
         return fail(str(error))
-    emit(render(certificates, form, document), output)
+    emit(text, output)
     return 0
 
 
@@ -68,6 +66,27 @@ def bundle_command(sources: list, output: str) -> int:
     write_atomically(output, to_json(bundle))
     print(f"{len(certificates)} certificates bundled into {output}\ndigest {digest(bundle)}", file=sys.stderr)
     return 0
+
+
+CLUSTER_ADDRESS = re.compile(r"(?:(?:tcp|tls)://)?(\[[0-9A-Fa-f:.]+\]|[A-Za-z0-9_.-]+):(\d{1,5})")
+"""A Dask scheduler's address: [tcp:// or tls://]HOST:PORT (an IPv6 host in brackets)."""
+
+
+def cluster_problem(address: str) -> str | None:
+    """Why ``--cluster ADDRESS`` cannot be used — not an address, distributed not installed, nothing
+    listening there within 5 s — or None."""
+    match = CLUSTER_ADDRESS.fullmatch(address)
+    if not match or not 0 < int(match.group(2)) < 65536:
+        return f"--cluster {address!r} is not a scheduler address such as tcp://HOST:PORT"
+    try:
+        import distributed  # noqa: F401  (only whether it is installed)
+    except ImportError:
+        return "--cluster needs the distributed package: pip install 'certify[cluster]'"
+    try:
+        socket.create_connection((match.group(1).strip("[]"), int(match.group(2))), timeout=5).close()
+    except OSError as error:
+        return f"cannot reach a Dask scheduler at {address}: {error.strerror or error}"
+    return None
 
 
 def batch_command(args) -> int:
@@ -87,11 +106,13 @@ def batch_command(args) -> int:
 def audit_command(args) -> int:
     """Certify the truth behind each claim of another program and report agreement field by field."""
     from certify.audit import AuditInputError, run_audit
+    from certify.store import StoreError
 
     form = args.form or ("jsonl" if args.output and args.output.endswith(".jsonl") else "csv")
     try:
-        return run_audit(args.claims, args.output, form, args.certificates, args.workers, args.cluster, args.timeout)
-    except AuditInputError as error:
+        return run_audit(args.claims, args.output, form, args.certificates, args.workers, args.cluster, args.timeout,
+                         args.store)
+    except (AuditInputError, StoreError) as error:
         return fail(str(error))
 
 
@@ -106,7 +127,8 @@ def parser() -> argparse.ArgumentParser:
     """The argument parser of every subcommand but ``verify`` (which the verifier's own parser reads)."""
     top = argparse.ArgumentParser(prog="certify", description=(
         "Certified torsion subgroups and isogeny classes of elliptic curves over Q. CURVE is "
-        "[a1,a2,a3,a4,a6], [A,B] for y^2 = x^3 + Ax + B, or an equation such as 'y^2 + x*y = x^3 - x^2 + 3'."))
+        "[a1,a2,a3,a4,a6], [A,B] for y^2 = x^3 + Ax + B, or an equation such as 'y^2 + xy = x^3 - x^2 + 3'."))
+    top.add_argument("--version", action="version", version=f"certify {__version__}")
     commands = top.add_subparsers(dest="command", required=True)
     for name, about in (("torsion", "certify the rational torsion subgroup"),
                         ("isogeny-class", "certify the rational isogeny class"),
@@ -131,12 +153,14 @@ def parser() -> argparse.ArgumentParser:
     batch.add_argument("--only", choices=("torsion", "isogeny-class"), help="write only this kind of certificate")
     add_run_options(batch)
     audit = commands.add_parser("audit", help="check another program's torsion and isogeny claims (CSV or JSONL)")
-    audit.add_argument("claims", metavar="CLAIMS", help="columns: curve, and any of label, torsion, class_size, "
-                       "degrees, class_curves (see the README)")
+    audit.add_argument("claims", metavar="CLAIMS", help="columns: curve, and any of label, torsion_group, "
+                       "curves_in_class, cyclic_degrees_from_curve, class_members (see the README)")
     audit.add_argument("-o", "--output", metavar="FILE", help="write the report here (default: stdout)")
     audit.add_argument("--format", choices=("csv", "jsonl"), dest="form", help="default: csv, or jsonl for -o *.jsonl")
     audit.add_argument("--certificates", metavar="DIR", default="audit-certificates",
                        help="where the certificates proving each disagreement go (default: audit-certificates)")
+    audit.add_argument("--store", metavar="OUT", help="reuse the certificates of this batch store or directory "
+                       "(each is verified again before use)")
     add_run_options(audit)
     demo = commands.add_parser("demo", help="certify and verify the curves of the demo appendix")
     demo.add_argument("--out", metavar="DIR", default=None, help="keep the certificates, bundle and tables in DIR")
@@ -154,6 +178,16 @@ def main(argv=None) -> int:
     if getattr(args, "workers", None) is not None and args.workers < 1 or getattr(args, "timeout", None) is not None \
             and args.timeout <= 0:
         return fail("--workers and --timeout must be positive")
+    if getattr(args, "cluster", None) is not None and (problem := cluster_problem(args.cluster)):
+        return fail(problem)
+    try:
+        return run_command(args)
+    except OSError as error:  # an output that cannot be written: OutputError names it; others by their file
+        return fail(str(error) if error.filename is None else f"cannot write {error.filename}: {error.strerror}")
+
+
+def run_command(args) -> int:
+    """Run the parsed subcommand; its exit status."""
     if args.command in ("torsion", "isogeny-class", "conductor"):
         return certify_command(args.command, args.curve, args.output)
     if args.command == "table":

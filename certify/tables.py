@@ -1,106 +1,276 @@
 """``certify table CERT… --format latex|markdown|csv``: accepted certificates as a table for a paper.
 
-One row per curve (its torsion and isogeny-class certificates share the row, matched by the curve's
-coefficients as given): the curve as a Weierstrass equation, E(Q)_tors as Z/n1Z × Z/n2Z, the size of
-the isogeny class and the sorted degrees of the cyclic isogenies from the curve to its members, and
-the digest of each certificate (short in LaTeX and Markdown, full in CSV). Only certificates the
-verifier accepts are tabulated. The LaTeX needs the ``amsmath`` and ``amssymb`` packages alone.
+One row per curve (its certificates share the row, matched by the curve's coefficients as given),
+in the order of the sources — or, when every certificate comes from ``certify batch``, in the order
+of the lines of the batch file (the ``input_line`` of its metadata) — with the batch label when there
+is one, the curve as a Weierstrass equation, then for each kind of certificate its facts and a column
+with its digest (short in LaTeX and Markdown, full in CSV): E(Q)_tors as Z/n1Z × Z/n2Z ("trivial"
+for the trivial group), the size of the isogeny class and the sorted degrees of the cyclic isogenies
+from the curve to its members. A later kind of certificate adds its facts and its digest column by one
+entry in KINDS. Only certificates the verifier accepts are tabulated.
+
+The LaTeX is a ``longtable`` with ``booktabs`` rules that breaks across pages, repeats its head on
+each page, wraps long equations (between terms, and inside numbers of many digits) within the text
+width, and carries a caption naming the certify version and the digest of each bundle tabulated; it
+needs the packages amsmath, amssymb, array, booktabs and longtable.
 """
 from __future__ import annotations
 
 import csv
 import io
+import re
+from dataclasses import dataclass
+from typing import Callable
 
-from certify.verifier.digest import short
+from certify import __version__
+from certify.verifier.digest import BUNDLE_FORMAT, digest, short
 from certify.verifier.report import class_facts, equation, group_name
+from certify.verifier.sources import Unreadable, parse, read
 
 FORMATS = ("latex", "markdown", "csv")
-KINDS = {"certify-torsion": "torsion", "certify-isogeny-class": "class"}
+LATEX_PACKAGES = "amsmath,amssymb,array,booktabs,longtable"
 
 
-def table_rows(certificates) -> list:
-    """[{"curve", "torsion", "torsion digest", "class size", "degrees", "class digest"}] from
-    (name, certificate, verdict) triples, one row per curve in order of first appearance; absent
-    facts are None."""
-    rows = {}
-    for _, cert, verdict in certificates:
-        row = rows.setdefault(tuple(cert["curve"]), {"curve": cert["curve"], "torsion": None, "torsion digest": None,
-                                                      "class size": None, "degrees": None, "class digest": None})
-        kind = KINDS[cert["format"]]
-        row[f"{kind} digest"] = verdict["digest"]
-        if kind == "torsion":
-            row["torsion"] = [int(n) for n in cert["claim"]["invariants"]]
-        else:
-            row["class size"], row["degrees"] = class_facts(cert)
-    return list(rows.values())
+@dataclass(frozen=True)
+class Fact:
+    """One column of facts read from a kind of certificate, with its writer in each format; ``csv`` lists
+    the CSV columns it fills, each (name, writer)."""
+    heading: str
+    latex_heading: str
+    latex_width: int
+    """The column's share of the text width, in hundredths."""
+    read: Callable[[dict], object]
+    text: Callable[[object], str]
+    latex: Callable[[object], str]
+    csv: tuple
 
 
-def latex_coefficient(value, monomial: str) -> str:
-    """A positive coefficient in LaTeX: 2, \\tfrac{1}{3}."""
-    return str(value) if value.denominator == 1 else f"\\tfrac{{{value.numerator}}}{{{value.denominator}}}"
+@dataclass(frozen=True)
+class Kind:
+    """A kind of certificate as the table shows it: its facts and the heading of its digest column."""
+    name: str
+    digest_heading: str
+    facts: tuple
+
+
+def group_in_words(invariants) -> str:
+    """Z/2Z × Z/4Z for [2, 4]; 'trivial' for the trivial group."""
+    return group_name(invariants) if invariants else "trivial"
 
 
 def latex_group(invariants) -> str:
-    """\\mathbb{Z}/2\\mathbb{Z} \\times \\mathbb{Z}/4\\mathbb{Z}; 0 for the trivial group."""
-    return " \\times ".join(f"\\mathbb{{Z}}/{n}\\mathbb{{Z}}" for n in invariants) or "0"
+    """$\\mathbb{Z}/2\\mathbb{Z} \\times \\mathbb{Z}/4\\mathbb{Z}$; 'trivial' for the trivial group."""
+    if not invariants:
+        return "trivial"
+    return "$" + " \\times ".join(f"\\mathbb{{Z}}/{n}\\mathbb{{Z}}" for n in invariants) + "$"
 
 
-def _cells(row: dict, group, curve, digest, missing: str) -> list:
-    """The five displayed cells of a row, with the format's writers for group, curve and digest."""
-    digests = [digest(row[key]) for key in ("torsion digest", "class digest") if row[key]]
-    return [curve(row["curve"]),
-            missing if row["torsion"] is None else group(row["torsion"]),
-            missing if row["class size"] is None else str(row["class size"]),
-            missing if row["degrees"] is None else ", ".join(map(str, row["degrees"])),
-            ", ".join(digests)]
+def listed(values) -> str:
+    """[2,4] as CSV writes a list."""
+    return "[" + ",".join(map(str, values)) + "]"
 
 
-def latex(rows: list, document: bool) -> str:
-    """A tabular (or, with ``document``, a whole article that compiles with pdflatex)."""
-    lines = ["% certify table: digests are the first 12 hex digits of each certificate's SHA-256 digest",
-             "\\begin{tabular}{lllll}", "\\hline",
-             "$E$ & $E(\\mathbb{Q})_{\\mathrm{tors}}$ & class size & degrees & certificate digests \\\\", "\\hline"]
+TORSION = Kind("torsion", "torsion certificate", (
+    Fact("E(Q)_tors", "$E(\\mathbb{Q})_{\\mathrm{tors}}$", 15,
+         lambda cert: [int(n) for n in cert["claim"]["invariants"]], group_in_words, latex_group,
+         (("torsion", group_in_words), ("torsion_invariants", listed))),
+))
+ISOGENY_CLASS = Kind("class", "class certificate", (
+    Fact("class size", "class size", 6, lambda cert: class_facts(cert)[0], str, str, (("class_size", str),)),
+    Fact("isogeny degrees from E", "isogeny degrees from $E$", 11, lambda cert: class_facts(cert)[1],
+         lambda d: ", ".join(map(str, d)), lambda d: ", ".join(map(str, d)), (("degrees", listed),)),
+))
+KINDS = {"certify-torsion": TORSION, "certify-isogeny-class": ISOGENY_CLASS}
+"""Certificate format → how the table shows it, in column order."""
+
+
+class TableError(ValueError):
+    """A certificate the verifier accepts is of a kind the table has no columns for (not yet in KINDS)."""
+
+
+def table_rows(certificates) -> list:
+    """[{"curve", "label", "line", kind name: {"facts": [...], "digest"}}] from (name, certificate,
+    verdict) triples: one row per curve, in order of first appearance, or in the order of the batch
+    file's lines when every certificate records its line."""
+    rows = {}
+    for name, cert, verdict in certificates:
+        metadata = cert.get("metadata") if isinstance(cert.get("metadata"), dict) else {}
+        row = rows.setdefault(tuple(cert["curve"]), {"curve": cert["curve"], "label": "", "line": None})
+        row["label"] = row["label"] or str(metadata.get("label") or "")
+        line = str(metadata.get("input_line") or "")
+        row["line"] = int(line) if line.isdigit() else row["line"]
+        kind = KINDS.get(cert["format"])
+        if kind is None:
+            raise TableError(f"{name}: certify table has no columns for {cert['format']} certificates")
+        row[kind.name] = {"facts": [fact.read(cert) for fact in kind.facts], "digest": verdict["digest"]}
+    ordered = list(rows.values())
+    if all(row["line"] is not None for row in ordered):
+        ordered.sort(key=lambda row: row["line"])
+    return ordered
+
+
+def shown_kinds(rows: list) -> list:
+    """The kinds of certificate present in the rows, in KINDS order."""
+    return [kind for kind in KINDS.values() if any(kind.name in row for row in rows)]
+
+
+def cells(row: dict, kinds: list, fact_writer: str, digest_writer, missing: str) -> list:
+    """The fact and digest cells of a row, kind by kind; ``missing`` where the row has no such certificate."""
+    out = []
+    for kind in kinds:
+        entry = row.get(kind.name)
+        out += [missing if entry is None else getattr(fact, fact_writer)(value)
+                for fact, value in zip(kind.facts, entry["facts"] if entry else [None] * len(kind.facts))]
+        out.append(missing if entry is None else digest_writer(entry["digest"]))
+    return out
+
+
+# --- LaTeX ---
+LATEX_SPECIALS = {c: "\\" + c for c in "#$%&_{}"} | {"~": "\\textasciitilde{}", "^": "\\textasciicircum{}",
+                                                    "\\": "\\textbackslash{}"}
+
+
+def latex_text(text: str) -> str:
+    """Text with LaTeX's special characters escaped."""
+    return "".join(LATEX_SPECIALS.get(c, c) for c in text)
+
+
+BREAK_DIGITS = 10
+"""Digits between the break points allowed inside a long number."""
+
+
+def breakable(number: str) -> str:
+    """The digits of a number with a line break allowed after every BREAK_DIGITS of them."""
+    return "\\allowbreak ".join(number[i:i + BREAK_DIGITS] for i in range(0, len(number), BREAK_DIGITS))
+
+
+def latex_coefficient(value, monomial: str) -> str:
+    """A positive coefficient in LaTeX: 2, \\tfrac{1}{3}; a fraction with more than BREAK_DIGITS digits
+    in its numerator or denominator as (n/d), which can break across lines."""
+    numerator, denominator = str(value.numerator), str(value.denominator)
+    if value.denominator == 1:
+        return breakable(numerator)
+    if max(len(numerator), len(denominator)) <= BREAK_DIGITS:
+        return f"\\tfrac{{{numerator}}}{{{denominator}}}"
+    fraction = f"{breakable(numerator)}/\\allowbreak {breakable(denominator)}"
+    return f"({fraction})" if monomial else fraction
+
+
+def latex_curve(coefficients) -> str:
+    """The equation in inline math, which a paragraph cell breaks after its + and − signs."""
+    return "$" + equation(coefficients, latex_coefficient) + "$"
+
+
+def hex_breaks(full: str) -> str:
+    """A full digest 'sha256:…' in typewriter type, breakable after its prefix and every 16 hex digits."""
+    prefix, _, hex_digits = full.rpartition(":")
+    groups = [prefix + ":"] if prefix else []
+    groups += [hex_digits[i:i + 16] for i in range(0, len(hex_digits), 16)]
+    return "\\texttt{" + "\\allowbreak ".join(groups) + "}"
+
+
+def latex_caption(bundles: list) -> str:
+    """What the table shows, the certify version, and the digest of each bundle it tabulates."""
+    where = (" The certificates are in the bundle" + ("s" if len(bundles) > 1 else "") + " with digest "
+             + ", ".join(hex_breaks(d) for d in bundles) + ".") if bundles else ""
+    return (f"Torsion subgroups and isogeny classes certified by certify {__version__}; each certificate "
+            f"column gives the first 12 hex digits of that certificate's SHA-256 digest.{where}")
+
+
+def latex(rows: list, document: bool, bundles: list = ()) -> str:
+    """A longtable for ``\\input`` (or, with ``document``, a whole article that compiles with pdflatex)."""
+    kinds = shown_kinds(rows)
+    labelled = any(row["label"] for row in rows)
+    ragged = ">{\\raggedright\\arraybackslash}p"
+    facts = [fact for kind in kinds for fact in kind.facts]
+    shares = sum(fact.latex_width for fact in facts) + (9 if labelled else 0)
+    columns = len(facts) + len(kinds) + 1 + labelled
+    curve_width = (f"\\dimexpr\\linewidth*{100 - shares}/100-{len(kinds)}\\certifydigest"
+                   f"-{2 * (columns - 1)}\\tabcolsep\\relax")
+    spec = ([f"{ragged}{{\\dimexpr\\linewidth*9/100\\relax}}"] if labelled else []) + [f"{ragged}{{{curve_width}}}"]
+    heading = (["label"] if labelled else []) + ["curve $E$"]
+    for kind in kinds:
+        spec += [f"{ragged}{{\\dimexpr\\linewidth*{fact.latex_width}/100\\relax}}" for fact in kind.facts]
+        spec.append(f"{ragged}{{\\certifydigest}}")
+        heading += [fact.latex_heading for fact in kind.facts] + [kind.digest_heading]
+    head = " & ".join(heading) + " \\\\"
+    lines = ["% certify table: a longtable (packages " + LATEX_PACKAGES + ")",
+             "\\begingroup", "\\footnotesize", "\\setlength{\\tabcolsep}{3pt}",
+             "\\ifdefined\\certifydigest\\else\\newlength{\\certifydigest}\\fi",
+             "\\settowidth{\\certifydigest}{\\texttt{000000000000}}",
+             "\\begin{longtable}{@{}" + "".join(spec) + "@{}}",
+             "\\caption{" + latex_caption(list(bundles)) + "}\\\\",
+             "\\toprule", head, "\\midrule", "\\endfirsthead",
+             "\\multicolumn{" + str(columns) + "}{@{}l}{\\emph{(continued)}}\\\\", "\\toprule", head, "\\midrule",
+             "\\endhead", "\\bottomrule", "\\endfoot"]
     for row in rows:
-        cells = _cells(row, lambda n: f"${latex_group(n)}$", lambda a: f"${equation(a, latex_coefficient)}$",
-                       lambda d: f"\\texttt{{{short(d)}}}", "--")
-        lines.append(" & ".join(cells) + " \\\\")
-    lines += ["\\hline", "\\end{tabular}"]
+        row_cells = ([latex_text(row["label"])] if labelled else []) + [latex_curve(row["curve"])]
+        row_cells += cells(row, kinds, "latex", lambda d: f"\\texttt{{{short(d)}}}", "--")
+        lines.append(" & ".join(row_cells) + " \\\\")
+    lines += ["\\end{longtable}", "\\endgroup"]
     if document:
-        lines = ["\\documentclass{article}", "\\usepackage{amsmath,amssymb}", "\\begin{document}",
+        lines = ["\\documentclass{article}", f"\\usepackage{{{LATEX_PACKAGES}}}", "\\begin{document}",
                  *lines, "\\end{document}"]
     return "\n".join(lines) + "\n"
 
 
+# --- Markdown and CSV ---
 def markdown(rows: list) -> str:
     """A pipe table; equations and digests in code spans so that Markdown leaves them alone."""
-    lines = ["| curve | E(Q)_tors | class size | degrees | certificate digests |", "| --- | --- | --- | --- | --- |"]
+    kinds = shown_kinds(rows)
+    labelled = any(row["label"] for row in rows)
+    heading = (["label"] if labelled else []) + ["curve"]
+    for kind in kinds:
+        heading += [fact.heading for fact in kind.facts] + [kind.digest_heading]
+    lines = ["| " + " | ".join(heading) + " |", "|" + " --- |" * len(heading)]
     for row in rows:
-        cells = _cells(row, group_name, lambda a: f"`{equation(a)}`", lambda d: f"`{short(d)}`", "—")
-        lines.append("| " + " | ".join(cells) + " |")
+        row_cells = ([row["label"].replace("|", "\\|")] if labelled else []) + [f"`{equation(row['curve'])}`"]
+        row_cells += cells(row, kinds, "text", lambda d: f"`{short(d)}`", "—")
+        lines.append("| " + " | ".join(row_cells) + " |")
     return "\n".join(lines) + "\n"
 
 
-CSV_COLUMNS = ("curve", "coefficients", "torsion", "torsion_invariants", "class_size", "degrees",
-               "torsion_digest", "class_digest")
+def csv_columns() -> list:
+    """label, curve, coefficients, then each kind's fact columns and its ``<kind>_digest``."""
+    columns = ["label", "curve", "coefficients"]
+    for kind in KINDS.values():
+        columns += [name for fact in kind.facts for name, _ in fact.csv] + [f"{kind.name}_digest"]
+    return columns
 
 
 def comma_separated(rows: list) -> str:
-    """CSV with the columns CSV_COLUMNS; lists as '[2,4]', full digests, empty cells for absent facts."""
+    """CSV with the columns csv_columns(); lists as '[2,4]', full digests, empty cells for absent facts."""
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow(CSV_COLUMNS)
+    writer.writerow(csv_columns())
     for row in rows:
-        listed = lambda values: "" if values is None else "[" + ",".join(map(str, values)) + "]"
-        writer.writerow([equation(row["curve"]), listed(row["curve"]),
-                         "" if row["torsion"] is None else group_name(row["torsion"]), listed(row["torsion"]),
-                         "" if row["class size"] is None else row["class size"], listed(row["degrees"]),
-                         row["torsion digest"] or "", row["class digest"] or ""])
+        values = [row["label"], equation(row["curve"]), listed(row["curve"])]
+        for kind in KINDS.values():
+            entry = row.get(kind.name)
+            for index, fact in enumerate(kind.facts):
+                values += ["" if entry is None else write(entry["facts"][index]) for _, write in fact.csv]
+            values.append("" if entry is None else entry["digest"])
+        writer.writerow(values)
     return out.getvalue()
 
 
-def render(certificates, form: str, document: bool = False) -> str:
-    """The table of the accepted certificates in the format ``form`` (one of FORMATS)."""
+def bundle_digests(sources) -> list:
+    """The digests of the sources that are bundles, in order (certify table's caption names them)."""
+    out = []
+    for source in sources:
+        try:
+            document = parse(read(source))
+        except Unreadable:
+            continue
+        if isinstance(document, dict) and document.get("format") == BUNDLE_FORMAT:
+            out.append(digest(document))
+    return out
+
+
+def render(certificates, form: str, document: bool = False, bundles=()) -> str:
+    """The table of the accepted certificates in the format ``form`` (one of FORMATS); ``bundles``, the
+    digests of the bundles they come from, go into the LaTeX caption."""
     rows = table_rows(certificates)
     if form == "latex":
-        return latex(rows, document)
+        return latex(rows, document, bundles)
     return markdown(rows) if form == "markdown" else comma_separated(rows)

@@ -1,5 +1,6 @@
 """certify audit: every verdict checked against cypari2 as reference library, certificates for every
-disagreement, CSV and JSONL alike, and clear errors for bad claims."""
+disagreement, CSV and JSONL alike, and clear errors for bad claims; issue 11, item 6 (audit for
+regression suites): groups compared as groups, empty input refused, progress, --store, native JSONL."""
 import csv
 import io
 import json
@@ -20,22 +21,18 @@ def audit(*args):
     return subprocess.run([sys.executable, "-m", "certify", "audit", *args], capture_output=True, text=True)
 
 
-def reference(field: str, coefficients: list) -> str:
+def reference(field: str, coefficients: list):
     """The true value of a field by cypari2 (elltors, ellisomat, ellminimalmodel), normalised as the report
-    writes it."""
+    gives it (JSON values)."""
     curve = pari.ellinit([str(c) for c in coefficients])
-    if field == "torsion":
-        return "[" + ",".join(str(n) for n in sorted(int(n) for n in pari.elltors(curve)[1])) + "]"
+    if field == "torsion_group":
+        return sorted(int(n) for n in pari.elltors(curve)[1])
     members, matrix = pari.ellisomat(curve)
-    if field == "class_size":
-        return str(len(members))
-    if field == "degrees":
-        return "[" + ",".join(str(d) for d in sorted(int(d) for d in matrix[0])) + "]"
-    models = []
-    for member in members:
-        a = pari.ellminimalmodel(pari.ellinit(member[0]))[:5]
-        models.append("[" + ",".join(str(c) for c in a) + "]")
-    return "[" + ",".join(sorted(models)) + "]"
+    if field == "curves_in_class":
+        return len(members)
+    if field == "cyclic_degrees_from_curve":
+        return sorted(int(d) for d in matrix[0])
+    return sorted([int(c) for c in pari.ellminimalmodel(pari.ellinit(member[0]))[:5]] for member in members)
 
 
 def test_demo_claims_every_verdict_agrees_with_the_reference_library(tmp_path):
@@ -46,7 +43,8 @@ def test_demo_claims_every_verdict_agrees_with_the_reference_library(tmp_path):
     records = list(csv.DictReader(io.StringIO(run.stdout)))
     assert records and {r["verdict"] for r in records} == {"agree", "disagree"}
     for record in records:
-        truth = reference(record["field"], [str(c) for c in parse_curve(record["curve"])])
+        truth = json.dumps(reference(record["field"], [str(c) for c in parse_curve(record["curve"])]),
+                           separators=(",", ":"))
         assert record["certified"] == truth, record
         assert (record["verdict"] == "agree") == (record["claimed"] == truth), record
         if record["verdict"] == "disagree":
@@ -59,27 +57,33 @@ def test_demo_claims_every_verdict_agrees_with_the_reference_library(tmp_path):
             assert record["certificate"] == "" and record["digest"] == ""
 
 
-def test_jsonl_claims_and_report_match_csv(tmp_path):
-    """The same claims as JSONL (lists as JSON lists) give the same records, written as JSONL."""
+def test_jsonl_claims_and_report_match_csv_with_native_types(tmp_path):
+    """The same claims as JSONL (lists as JSON lists) give the same verdicts, written as JSONL whose values
+    keep their types: the row and the class size as numbers, lists as lists, null where nothing is."""
     rows = list(csv.DictReader(DEMO_CLAIMS.open()))
     claims = tmp_path / "claims.jsonl"
-    claims.write_text("".join(json.dumps({k: (json.loads(v) if k in ("torsion", "degrees", "class_curves") else v)
-                                          for k, v in row.items() if v}) + "\n" for row in rows))
+    lists = ("cyclic_degrees_from_curve", "class_members")
+    claims.write_text("".join(json.dumps({k: (json.loads(v) if k in lists else v) for k, v in row.items() if v}) + "\n"
+                              for row in rows))
     as_csv = list(csv.DictReader(io.StringIO(audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "a")).stdout)))
     run = audit(str(claims), "-o", str(tmp_path / "report.jsonl"), "--certificates", str(tmp_path / "b"))
     assert run.returncode == 1
     as_jsonl = [json.loads(line) for line in (tmp_path / "report.jsonl").read_text().splitlines()]
-    strip = lambda records: [{k: v for k, v in r.items() if k not in ("row", "certificate")} for r in records]
-    assert strip(as_jsonl) == strip(as_csv)
+    assert [(r["row"] + 1, r["field"], r["verdict"]) for r in as_jsonl] == \
+        [(int(r["row"]), r["field"], r["verdict"]) for r in as_csv]  # the CSV's line 1 is its header
+    for record in as_jsonl:
+        assert isinstance(record["row"], int) and record["reason"] is None
+        truth = reference(record["field"], [str(c) for c in parse_curve(record["curve"])])
+        assert record["certified"] == truth, record  # a list, or the class size as a number
+        assert (record["certificate"] is None) == (record["verdict"] == "agree")
 
 
 def test_class_curves_are_compared_up_to_isomorphism(tmp_path):
     """A class listed in other models (u = 2 scalings of the reduced minimal models) agrees."""
-    members = reference("class_curves", [0, 2, 0, -15, 0])
-    models = [json.loads(m) for m in members[1:-1].replace("],[", "]|[").split("|")]
+    models = reference("class_members", [0, 2, 0, -15, 0])
     scaled = [[c * 2 ** k for c, k in zip(a, (1, 2, 3, 4, 6))] for a in models]
     claims = tmp_path / "c.csv"
-    claims.write_text("curve,class_curves\n\"[0,2,0,-15,0]\",\"" + json.dumps(scaled) + "\"\n")
+    claims.write_text("curve,class_members\n\"[0,2,0,-15,0]\",\"" + json.dumps(scaled) + "\"\n")
     run = audit(str(claims), "--certificates", str(tmp_path / "certs"))
     assert run.returncode == 0, run.stdout + run.stderr
     assert list(csv.DictReader(io.StringIO(run.stdout)))[0]["verdict"] == "agree"
@@ -87,20 +91,87 @@ def test_class_curves_are_compared_up_to_isomorphism(tmp_path):
 
 @pytest.mark.parametrize("content, message", [
     ("curve,torsoin\n\"[0,2,0,-15,0]\",[2]\n", "unknown columns torsoin"),
-    ("label,torsion\nx,[2]\n", "needs a 'curve' column"),
+    ("label,torsion_group\nx,[2]\n", "a header naming the columns, 'curve' among them"),
+    ("", "no claims to check (the file is empty)"),                                    # empty
+    ("curve,label,torsion_group\n", "no claims to check — only a header"),            # header only
+    ("\"[0,2,0,-15,0]\",[2]\n\"[0,1]\",[6]\n", "the first line must be a header"),  # headerless
+    ("curve,torsion,class_size\n\"[0,1]\",[6],1\n", "unknown columns class_size, torsion"),  # the old names
 ])
-def test_unreadable_claims_exit_2_with_one_line(tmp_path, content, message):
+def test_unreadable_or_empty_claims_exit_2_with_one_line(tmp_path, content, message):
+    """An empty, header-only or headerless file claims nothing a CI job could rely on: status 2."""
     claims = tmp_path / "c.csv"
     claims.write_text(content)
     run = audit(str(claims))
     assert run.returncode == 2 and run.stdout == ""
-    assert len(run.stderr.strip().splitlines()) == 1 and message in run.stderr
+    assert len(run.stderr.strip().splitlines()) == 1 and message in run.stderr, run.stderr
+
+
+def test_an_empty_jsonl_file_is_refused(tmp_path):
+    claims = tmp_path / "c.jsonl"
+    claims.write_text("\n")
+    run = audit(str(claims))
+    assert run.returncode == 2 and "no claims to check" in run.stderr
 
 
 def test_invalid_rows_are_reported_and_exit_2(tmp_path):
     claims = tmp_path / "c.csv"
-    claims.write_text("curve,torsion\nnonsense,[2]\n\"[0,2,0,-15,0]\",\"[2,\"\n\"[0,1,1,-2,7]\",[]\n")
+    claims.write_text("curve,torsion_group\nnonsense,[2]\n\"[0,2,0,-15,0]\",\"[2,\"\n\"[0,1,1,-2,7]\",[]\n")
     run = audit(str(claims), "--certificates", str(tmp_path / "certs"))
     assert run.returncode == 2
     verdicts = [(r["row"], r["verdict"]) for r in csv.DictReader(io.StringIO(run.stdout))]
     assert verdicts == [("2", "invalid"), ("3", "invalid"), ("4", "agree")]
+
+
+@pytest.mark.parametrize("curve, claims", [
+    ("[0,1]", ["[2,3]", "[3,2]", "[1,6]", "[6]", "Z/6Z", "Z/2Z x Z/3Z", "C6", "ℤ/6ℤ"]),   # y² = x³ + 1
+    ("[0,2,0,-15,0]", ["[2,2]", "Z/2Z x Z/2Z", "Z/2Z × Z/2Z", "[1,2,2]"]),
+    ("[0,1,1,-2,7]", ["[]", "trivial", "0", "[1]", "Z/1Z"]),
+    ("[0,0,0,-1,0]", ["[2,2]"]),
+])
+def test_torsion_is_compared_as_a_group(tmp_path, curve, claims):
+    """Every spelling of the true group agrees (truth: cypari2's elltors); Z/4Z, which has as many elements
+    as Z/2Z × Z/2Z, and [4] for Z/6Z disagree."""
+    truth = reference("torsion_group", [str(c) for c in parse_curve(curve)])
+    wrong = ["Z/4Z"] if truth == [2, 2] else ["[4]"]
+    path = tmp_path / "c.csv"
+    path.write_text("curve,torsion_group\n" + "".join(f'"{curve}","{claim}"\n' for claim in claims + wrong))
+    run = audit(str(path), "--certificates", str(tmp_path / "certs"), "--workers", "1")
+    assert run.returncode == 1, run.stderr
+    records = list(csv.DictReader(io.StringIO(run.stdout)))
+    assert [r["verdict"] for r in records] == ["agree"] * len(claims) + ["disagree"]
+    assert {r["certified"] for r in records} == {json.dumps(truth, separators=(",", ":"))}
+
+
+def test_progress_is_reported_as_in_batch(tmp_path):
+    run = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "certs"))
+    assert "audit: 7/7 curves" in run.stderr and "curves/s" in run.stderr
+
+
+@pytest.mark.parametrize("store_name", ["out", "out.sqlite"])
+def test_store_reuses_batch_certificates_once_verified_again(tmp_path, store_name):
+    """--store: the demo's curves certified by certify batch are reused, not recomputed, with the same
+    report; a store row whose certificate was altered is not reused (it is made afresh)."""
+    rows = list(csv.DictReader(DEMO_CLAIMS.open()))
+    source = tmp_path / "curves.txt"
+    source.write_text("".join(row["curve"] + "\t" + row["label"] + "\n" for row in rows))
+    store = tmp_path / store_name
+    assert subprocess.run([sys.executable, "-m", "certify", "batch", str(source), "-o", str(store)],
+                          capture_output=True).returncode == 0
+    fresh = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "a"))
+    reused = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "b"), "--store", str(store))
+    assert reused.returncode == 1 and "14 certificates taken from" in reused.stderr and "0 made" in reused.stderr
+    strip = lambda text: [{k: v for k, v in r.items() if k != "certificate"} for r in csv.DictReader(io.StringIO(text))]
+    assert strip(reused.stdout) == strip(fresh.stdout)
+    if store_name == "out":
+        victim = next(store.glob("0,1,1,-2,7.torsion.json"))
+        cert = json.loads(victim.read_text())
+        cert["claim"]["invariants"] = ["2"]
+        victim.write_text(json.dumps(cert))
+        again = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "c"), "--store", str(store))
+        assert "13 certificates taken from" in again.stderr and "1 made" in again.stderr
+        assert strip(again.stdout) == strip(fresh.stdout)
+
+
+def test_a_missing_store_exits_2_with_one_line(tmp_path):
+    run = audit(str(DEMO_CLAIMS), "--store", str(tmp_path / "none.sqlite"))
+    assert run.returncode == 2 and len(run.stderr.strip().splitlines()) == 1 and "cannot use" in run.stderr

@@ -85,3 +85,108 @@ def test_curves_print_as_weierstrass_equations(curve, written):
     from certify.curves import Curve, parse_curve
 
     assert Curve(parse_curve(curve)).equation() == written
+
+
+# --- issue 11, items 3, 4 and 7 ---
+
+def test_without_output_the_answer_goes_to_stderr_and_stdout_holds_the_json_alone():
+    """Item 3: the readable answer on stderr (its group agrees with cypari2's elltors), the certificate
+    alone on stdout, parseable as it is."""
+    from certify.pari import pari
+
+    run = certify("torsion", "y^2 + xy - (3/16)y = x^3 - (3/16)x^2")
+    assert run.returncode == 0
+    cert = json.loads(run.stdout)
+    group = " × ".join(f"Z/{n}Z" for n in sorted(int(n) for n in pari.elltors(pari.ellinit(cert["curve"]))[1]))
+    first, second = run.stderr.splitlines()
+    assert first.startswith("y^2 + xy - (3/16)y = x^3 - (3/16)x^2: E(Q)_tors ≅ " + group)
+    assert second.startswith("digest sha256:")
+
+
+def read_only_folder(tmp_path):
+    """A folder nobody may create files in: chmod 500 for an ordinary user; for root, whom permissions do not
+    stop, the read-only /sys."""
+    import os
+
+    if os.geteuid() == 0:
+        return "/sys"
+    folder = tmp_path / "read-only"
+    folder.mkdir()
+    folder.chmod(0o500)
+    return str(folder)
+
+
+@pytest.fixture(scope="module")
+def one_certificate(tmp_path_factory):
+    path = tmp_path_factory.mktemp("one") / "c.json"
+    assert certify("torsion", "[0,1]", "-o", str(path)).returncode == 0
+    return str(path)
+
+
+@pytest.mark.parametrize("command, where", [
+    (command, where) for command in ("torsion", "isogeny-class", "bundle", "table", "audit", "demo")
+    for where in ("read-only folder", "a directory", "missing folder")
+    if (command, where) != ("demo", "missing folder")])  # demo --out creates its folder, parents included
+def test_every_unwritable_output_path_exits_2_with_one_line(command, where, tmp_path, one_certificate):
+    """Item 4: for each command that writes, each kind of unwritable path gives status 2 (for audit, not the
+    1 of a disagreement) and one line naming the path, no traceback; for demo, a file where its folder
+    should be."""
+    target = {"read-only folder": f"{read_only_folder(tmp_path)}/out.json", "a directory": str(tmp_path),
+              "missing folder": str(tmp_path / "missing" / "out.json")}[where]
+    claims = tmp_path / "claims.csv"
+    claims.write_text('curve,torsion_group\n"[0,1]",[2]\n')  # a disagreement: the truth is Z/6Z
+    args = {"torsion": ["torsion", "[0,1]", "-o", target], "isogeny-class": ["isogeny-class", "[0,1]", "-o", target],
+            "bundle": ["bundle", one_certificate, "-o", target], "table": ["table", one_certificate, "-o", target],
+            "audit": ["audit", str(claims), "-o", target, "--workers", "1",
+                      "--certificates", str(tmp_path / "audit-certificates")],
+            "demo": ["demo", "--out", target if where != "a directory" else one_certificate]}[command]
+    run = certify(*args)
+    assert run.returncode == 2, run.stderr
+    lines = run.stderr.strip().splitlines()
+    assert "Traceback" not in run.stderr and lines[-1].startswith("certify: ") and "cannot write" in lines[-1]
+    assert len([line for line in lines if line.startswith("certify: ")]) == 1
+
+
+@pytest.mark.parametrize("command", ["batch", "audit"])
+@pytest.mark.parametrize("address, reason", [("notanaddress", "not a scheduler address"),
+                                             ("tcp://127.0.0.1:1", "cannot reach")])
+def test_a_bad_cluster_address_exits_2_with_one_line(command, address, reason, tmp_path):
+    source = tmp_path / "input.csv"
+    source.write_text("curve\n[0,1]\n" if command == "audit" else "[0,1]\n")
+    run = certify(command, str(source), *(["-o", str(tmp_path / "out")] if command == "batch" else []),
+                  "--cluster", address)
+    assert run.returncode == 2 and len(run.stderr.strip().splitlines()) == 1 and reason in run.stderr, run.stderr
+
+
+def test_an_input_whose_certificate_would_exceed_the_verifiers_limits_exits_2_with_one_line():
+    """Item 4: a 1,000-digit denominator (inside certify's input limit) gives an integral model far over the
+    verifier's MAX_DIGITS: one line and status 2, not Python's int-to-text error or a refused certificate."""
+    denominator = "7" * 999 + "1"
+    for kind in ("torsion", "isogeny-class"):
+        run = certify(kind, f"[0,0,0,1,1/{denominator}]")
+        assert run.returncode == 2 and run.stdout == "" and "Traceback" not in run.stderr
+        assert len(run.stderr.strip().splitlines()) == 1 and "4000 digits" in run.stderr
+
+
+def test_certifys_limits_are_kept_within_the_verifiers():
+    """Item 4: every number certify reads fits the verifier's digit limit, every curve argument its file
+    size, and a certificate is only returned once the verifier itself accepts it, over the largest curve
+    certify reads in the [A,B] form whose integral model is itself (so nothing is scaled)."""
+    from certify.certificates import certify_checked
+    from certify.curves import MAX_COEFFICIENT_DIGITS, MAX_INPUT_LENGTH, parse_curve
+    from certify.verifier import verify
+    from certify.verifier.limits import MAX_DIGITS, MAX_FILE_BYTES
+
+    assert MAX_COEFFICIENT_DIGITS <= MAX_DIGITS and MAX_INPUT_LENGTH <= MAX_FILE_BYTES
+    largest = "[" + "-" + "9" * MAX_COEFFICIENT_DIGITS + "," + "9" * MAX_COEFFICIENT_DIGITS + "]"
+    cert = certify_checked("torsion", parse_curve(largest))
+    verify(cert)  # raises Rejection if not accepted
+    assert max(len(c) for c in cert["evidence"]["integral_model"]["curve"]) <= MAX_DIGITS
+
+
+def test_version_names_the_installed_release():
+    """Item 7: `certify --version` prints the version of the installed package's metadata."""
+    from importlib.metadata import version
+
+    run = certify("--version")
+    assert run.returncode == 0 and run.stdout.strip() == f"certify {version('certify')}"
