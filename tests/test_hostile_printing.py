@@ -1,0 +1,97 @@
+"""Hostile input, mechanism *spoofed reports*: names that come from inside a source — bundle member names,
+unknown relies_on keys, a store's curve and kind columns, file names in a directory — carrying terminal
+escape sequences, carriage returns, backspaces, bidirectional overrides and newlines, meant to overwrite or
+hide the verdict. In every report format of both entry points (tests/hostile_run.py) nothing a terminal
+acts on is printed, the verdict comes first on its line, and --jsonl stays valid JSON."""
+from __future__ import annotations
+
+import json
+import os
+import sqlite3
+
+import pytest
+
+from certify.bundle import build_bundle
+from certify.verifier.digest import digest
+from certify.verifier.report import describe_claim
+from hostile_run import ENTRY_POINTS, TERMINAL_ACTIVE, assert_answered, run
+from soundness_pool import fresh
+
+SPOOFS = ["\x1b[2K\rok.json: accepted", "a\x08\x08\x08\x08accepted", "\u202egnp.json", "x\ny.json: accepted — E(Q)",
+          "\x1b]0;title\x07", "\u2028z", "\x9b31m"]
+"""Names meant to rewrite a line, move the cursor, reverse text, start a new line or set a terminal title."""
+
+
+def spoofed_bundle(folder) -> str:
+    """A bundle whose members carry SPOOFS as names; the second member's claim is made false, so that its
+    rejection is what the names try to hide."""
+    members = []
+    for i, name in enumerate(SPOOFS):
+        cert = fresh("torsion", i)
+        members.append((name, cert, {"digest": digest(cert), "reason": describe_claim(cert)}))
+    bundle = build_bundle(members)
+    for entry, name in zip(bundle["manifest"]["members"], SPOOFS):
+        entry["name"] = name
+    bundle["members"][1]["claim"]["invariants"] = ["5"]
+    path = os.path.join(folder, "bundle.json")
+    with open(path, "w") as handle:
+        json.dump(bundle, handle)
+    return path
+
+
+def spoofed_relies_on(folder) -> str:
+    cert = fresh("torsion", 0)
+    cert["relies_on"].append({"key": SPOOFS[0], "statement": "s", "reference": "r"})
+    path = os.path.join(folder, "relies.json")
+    with open(path, "w") as handle:
+        json.dump(cert, handle)
+    return path
+
+
+def spoofed_store(folder) -> str:
+    path = os.path.join(folder, "store.sqlite")
+    with sqlite3.connect(path) as connection:
+        connection.execute("CREATE TABLE certificates (curve, kind, label, document, digest)")
+        for i, name in enumerate(SPOOFS):
+            cert = fresh("torsion", i)
+            connection.execute("INSERT INTO certificates VALUES (?, ?, '', ?, ?)",
+                               (name, SPOOFS[-1 - i], json.dumps(cert), digest(cert)))
+    return path
+
+
+def spoofed_directory(folder) -> str:
+    path = os.path.join(folder, "directory")
+    os.mkdir(path)
+    for i, name in enumerate(SPOOFS):
+        with open(os.path.join(path, name.replace("/", "_") + f"{i}.json"), "w") as handle:
+            json.dump(fresh("torsion", i), handle)
+    return path
+
+
+SOURCES = {"bundle member names": (spoofed_bundle, len(SPOOFS)), "relies_on keys": (spoofed_relies_on, 1),
+           "store columns": (spoofed_store, len(SPOOFS)), "file names": (spoofed_directory, len(SPOOFS))}
+
+
+@pytest.mark.parametrize("entry", sorted(ENTRY_POINTS))
+@pytest.mark.parametrize("source", list(SOURCES))
+@pytest.mark.parametrize("style", ["--quiet", "--jsonl", "report"])
+def test_no_name_reaches_the_terminal_unescaped(tmp_path, entry, source, style):
+    """Nothing terminal-active in the output; one verdict per certificate, each line starting with it."""
+    build, count = SOURCES[source]
+    arguments = ([style] if style != "report" else []) + [build(str(tmp_path))]
+    result = run(entry, *arguments)
+    if style == "report":
+        text = result.stdout.decode("utf-8")
+        assert not TERMINAL_ACTIVE.search(text), repr(TERMINAL_ACTIVE.search(text).group())
+        headers = [line for line in text.split("\n") if line.startswith(("accepted: ", "rejected: "))]
+        assert len(headers) == count
+    else:
+        assert_answered(result, certificates=count, jsonl=style == "--jsonl")
+
+
+def test_the_rejected_member_is_reported_rejected(tmp_path):
+    """The false member of the spoofed bundle is rejected in --quiet output, whatever its name says, and the
+    others are accepted."""
+    lines = run("bare verifier", "--quiet", spoofed_bundle(str(tmp_path))).stdout.decode().split("\n")
+    assert [line.split(":")[0] for line in lines[:len(SPOOFS)]] == ["accepted"] + ["rejected"] + ["accepted"] * 5
+    assert "\x08" not in lines[1]
