@@ -404,8 +404,9 @@ def _valuation(n: int, p: int) -> int:
     return v
 
 
-def _primes_dividing(n: int) -> list[int]:
-    """The prime factors of n, by PARI within FACTORING_SECONDS (the certifier may use generic algebra)."""
+def _primes_dividing(n: int, purpose: str = "to find the minimal model") -> list[int]:
+    """The prime factors of n, by PARI within FACTORING_SECONDS (the certifier may use generic algebra);
+    ``purpose`` ends the message of FactoringTooHard."""
     if abs(n) <= 1:
         return []
     from cysignals.alarm import AlarmInterrupt, alarm, cancel_alarm
@@ -417,7 +418,7 @@ def _primes_dividing(n: int) -> list[int]:
         return [int(p) for p in pari.factor(abs(n))[0]]
     except AlarmInterrupt:
         raise FactoringTooHard(f"cannot factor a {abs(n).bit_length() * 30103 // 100000 + 1}-digit integer within {FACTORING_SECONDS} s "
-                               "to find the minimal model") from None
+                               + purpose) from None
     finally:
         cancel_alarm()
 
