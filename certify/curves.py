@@ -10,6 +10,7 @@ u ≠ 0, means x = u²x' + r, y = u³y' + su²x' + t (Silverman III.1, Table 3.1
 """
 from __future__ import annotations
 
+import functools
 import math
 import re
 from dataclasses import dataclass
@@ -296,24 +297,28 @@ class Curve:
     a: tuple
 
     def __post_init__(self):
-        object.__setattr__(self, "a", tuple(Fraction(c) for c in self.a))
+        object.__setattr__(self, "a", tuple(c if type(c) is Fraction else Fraction(c) for c in self.a))
 
     @cached_property
     def b(self) -> tuple:
         """(b2, b4, b6, b8) of Silverman III.1."""
-        return b_invariants(self.a)
+        return tuple(Fraction(v) for v in b_invariants(_plain(self.a)))
 
     @cached_property
     def c4(self) -> Fraction:
-        return c_invariants(self.a)[0]
+        return Fraction(self._c[0])
 
     @cached_property
     def c6(self) -> Fraction:
-        return c_invariants(self.a)[1]
+        return Fraction(self._c[1])
+
+    @cached_property
+    def _c(self) -> tuple:
+        return c_invariants(_plain(self.a))
 
     @cached_property
     def discriminant(self) -> Fraction:
-        return discriminant(self.a)
+        return Fraction(discriminant(_plain(self.a)))
 
     @cached_property
     def j(self) -> Fraction:
@@ -321,7 +326,8 @@ class Curve:
 
     def change(self, change: Change) -> "Curve":
         """The model obtained by x = u²x' + r, y = u³y' + su²x' + t (Silverman III.1, Table 3.1)."""
-        return Curve(change_model(self.a, tuple(Fraction(v) for v in change)))
+        u, r, s, t = change
+        return Curve(change_model(_plain(self.a), (Fraction(u), *_plain((r, s, t)))))
 
     def integral_model(self) -> tuple["Curve", Change]:
         """An integral model [1/d, 0, 0, 0]: d the least integer making every d^i·a_i integral, or the lcm
@@ -331,6 +337,8 @@ class Curve:
     @cached_property
     def _integral(self) -> tuple["Curve", Change]:
         denominators = math.lcm(*(c.denominator for c in self.a))
+        if denominators == 1:
+            return self, (Fraction(1), Fraction(0), Fraction(0), Fraction(0))
         try:
             d = 1
             for p in _primes_dividing(denominators):
@@ -347,7 +355,11 @@ class Curve:
         keep Δ integral and satisfy Kraus's conditions (Kraus 1989; Cremona, *Algorithms*, §3.2): v3(c6) ≠ 2, and
         c6 ≡ −1 (mod 4) or (16 | c4 and c6 ≡ 0, 8 (mod 32)). The reduced model with a1, a3 ∈ {0, 1},
         a2 ∈ {−1, 0, 1} is then rebuilt from (c4, c6) with b2 ≡ −c6 (mod 12) (Cremona §3.2).
+        The torsion and the isogeny-class certificate of one curve share the computation (a cache).
         """
+        return _minimal_model(self)
+
+    def _minimal_model(self) -> tuple["Curve", Change]:
         integral, to_integral = self.integral_model()
         c4, c6, discriminant = int(integral.c4), int(integral.c6), int(integral.discriminant)
         u = 1
@@ -372,9 +384,10 @@ class Curve:
         """The change [u, r, s, t] taking this model to the isomorphic model ``other``, given u.
 
         With u fixed, r, s, t are forced by the formulas for a1', a2', a3' (Silverman III.1, Table 3.1)."""
-        s = (u * other.a[0] - self.a[0]) / 2
-        r = (u * u * other.a[1] - self.a[1] + s * self.a[0] + s * s) / 3
-        t = (u ** 3 * other.a[2] - self.a[2] - r * self.a[0]) / 2
+        (a1, a2, a3, _, _), (b1, b2, b3, _, _) = _plain(self.a), _plain(other.a)
+        s = Fraction(u * b1 - a1, 2)
+        r = (u * u * b2 - a2 + s * a1 + s * s) / 3
+        t = (u ** 3 * b3 - a3 - r * a1) / 2
         if self.change((u, r, s, t)) != other:
             raise ArithmeticError("the models are not isomorphic by a change with this u")
         return (u, r, s, t)
@@ -384,6 +397,15 @@ class Curve:
         from certify.verifier.report import equation
 
         return equation(self.a)
+
+
+_minimal_model = functools.lru_cache(maxsize=256)(Curve._minimal_model)
+
+
+def _plain(values) -> tuple:
+    """The rationals with the integers among them as int, for fast exact arithmetic (the results of
+    +, −, × on them are the same numbers)."""
+    return tuple(v.numerator if v.denominator == 1 else v for v in values)
 
 
 def _kraus_at(p: int, c4: int, c6: int) -> bool:

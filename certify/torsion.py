@@ -13,7 +13,7 @@ from __future__ import annotations
 from math import gcd
 
 from certify.curves import Curve, FactoringTooHard, format_rational, inverse_change
-from certify.pari import pari
+from certify.pari import frobenius_trace, odd_primes
 from certify.verifier import theorems
 from certify.roots import hint_prime, rational_roots
 from certify.verifier.arith import prime_factors
@@ -63,15 +63,16 @@ def certify_torsion(a, given=None) -> dict:
 
 
 def good_reduction_counts(model, how_many: int) -> dict:
-    """{p: #E(F_p)} for the first ``how_many`` odd primes of good reduction of the integral model."""
-    curve = pari.ellinit([int(c) for c in model])
+    """{p: #E(F_p)} for the first ``how_many`` odd primes of good reduction of the integral model, or
+    fewer when their gcd is already 1: no further count can lower it, and the torsion is trivial."""
     delta = int(Curve(model).discriminant)
-    counts, p = {}, 2
-    while len(counts) < how_many:
-        p = int(pari.nextprime(p + 1))
+    counts, bound = {}, 0
+    for p in odd_primes():
         if delta % p:
-            counts[p] = p + 1 - int(pari.ellap(curve, p))
-    return counts
+            counts[p] = p + 1 - frobenius_trace(model, p)
+            bound = gcd(bound, counts[p])
+            if len(counts) == how_many or bound == 1:
+                return counts
 
 
 def bounding_primes(counts: dict, order: int) -> list:

@@ -8,7 +8,7 @@ from dataclasses import dataclass, field
 from certify.curves import Curve
 from certify.isogeny.kernels import kernel_by_codomain, kernels_by_factoring, linear_kernels
 from certify.isogeny.modular import frobenius_witnesses, x0_polynomial
-from certify.roots import roots_with_hint
+from certify.roots import rational_roots, roots_with_hint
 from certify.verifier.curves import division_polynomials, two_division_polynomial
 from certify.verifier.isogeny import FINITE_J, MAZUR_PRIMES, velu_codomain
 
@@ -34,21 +34,26 @@ def isogenies_of_degree(model: Curve, ell: int, frobenius: dict) -> tuple:
         if j in FINITE_J[ell]:
             return [kernel_by_codomain(model, ell)], {"method": "j-list"}
         return [], {"method": "j-list"}
-    if ell in (2, 3):
-        polynomial = two_division_polynomial(model.a) if ell == 2 else division_polynomials(model.a, 3)[3]
-        roots, p = roots_with_hint(polynomial)
-        kernels = linear_kernels(roots)
-        if special:
-            return kernels, {"method": "division-roots", "prime": p, "roots": roots}
     if special:
-        raise RuntimeError(f"no Frobenius witness for ℓ = {ell} on a curve with j = {j}")
+        if ell not in (2, 3):
+            raise RuntimeError(f"no Frobenius witness for ℓ = {ell} on a curve with j = {j}")
+        roots, p = roots_with_hint(_division_polynomial(model, ell))
+        return linear_kernels(roots), {"method": "division-roots", "prime": p, "roots": roots}
     t_roots, p = roots_with_hint(x0_polynomial(ell, j))
     witness = {"method": "x0-roots", "prime": p, "roots": t_roots}
+    if not t_roots:
+        return [], witness
     if ell in (2, 3):
+        kernels = linear_kernels(rational_roots(_division_polynomial(model, ell)))
         if len(kernels) != len(t_roots):
             raise RuntimeError(f"X_0({ell}) and the division polynomial disagree")
         return kernels, witness
-    return (kernels_by_factoring(model, ell, len(t_roots)) if t_roots else []), witness
+    return kernels_by_factoring(model, ell, len(t_roots)), witness
+
+
+def _division_polynomial(model: Curve, ell: int) -> list:
+    """The 2-division polynomial F (its roots are the x(P) of the points of order 2) or ψ_3."""
+    return two_division_polynomial(model.a) if ell == 2 else division_polynomials(model.a, 3)[3]
 
 
 def close_class(first: Curve) -> IsogenyClass:

@@ -7,7 +7,7 @@ from fractions import Fraction
 from itertools import combinations
 
 from certify.curves import Curve
-from certify.pari import pari
+from certify.pari import frobenius_trace, odd_primes, pari
 from certify.verifier.arith import poly_scale, poly_sub
 from certify.verifier.isogeny import FINITE_J, X0_NUMERATORS
 
@@ -25,15 +25,14 @@ def frobenius_witnesses(model: Curve, ells) -> dict:
     """{ℓ: the least odd good prime p ≠ ℓ below FROBENIUS_PRIME_BOUND with a_p² − 4p a non-zero
     non-square mod ℓ}, for the odd ℓ that have one; a_p is an isogeny invariant, so one search serves
     the whole class."""
-    E = pari.ellinit([int(c) for c in model.a])
     delta = int(model.discriminant)
     found = {}
-    p = 2
-    while len(found) < len(ells) and p < FROBENIUS_PRIME_BOUND:
-        p = int(pari.nextprime(p + 1))
+    for p in odd_primes():
+        if len(found) == len(ells) or p >= FROBENIUS_PRIME_BOUND:
+            break
         if delta % p == 0:
             continue
-        trace = int(pari.ellap(E, p))
+        trace = frobenius_trace(model.a, p)
         for ell in ells:
             if ell not in found and ell != p:
                 value = (trace * trace - 4 * p) % ell
@@ -47,6 +46,11 @@ def x0_polynomial(ell: int, j: Fraction) -> list:
     return poly_sub(poly_scale(j.denominator, X0_NUMERATORS[ell]), [0, j.numerator])
 
 
+TWIST_TEST_PRIMES = 200
+"""Primes searched for the twist tests of ``codomain_candidates``: only a p with a_p ≠ 0 tells twists
+apart, and a curve with CM by Q(√−163) has a_p = 0 at every p < 41 (all inert)."""
+
+
 def codomain_candidates(model: Curve, ell: int):
     """Short models (A′, B′) that may be the normalised codomain of the ℓ-isogeny of the model's
     short model y² = x³ − 27c4x − 54c6, for ℓ with a finite j-list.
@@ -58,13 +62,17 @@ def codomain_candidates(model: Curve, ell: int):
     normalised codomain is the twist's short minimal model scaled by u ∈ {1, ℓ, 1/ℓ}."""
     j = model.j
     target_j = PARTNER_J.get(ell, {}).get(j, j)
+    if target_j == j:  # CM by the maximal order of Q(√−ℓ): most often the −ℓ twist itself, scaled by u = 1
+        yield -27 * model.c4 * ell ** 2, 54 * model.c6 * ell ** 3
     base = (0, 0, 0, 3 * target_j * (1728 - target_j), 2 * target_j * (1728 - target_j) ** 2)
     E = pari.ellinit([int(c) for c in model.a])
     bad = {int(q) for q in pari.factor(abs(int(model.discriminant)))[0]}
     base_min, _ = Curve(base).minimal_model()
     bad |= {int(q) for q in pari.factor(abs(int(base_min.discriminant)))[0]} | {2}
-    good = [q for q in (int(x) for x in pari.primes(40)) if q not in bad][:12]
-    traces = [int(pari.ellap(E, q)) for q in good]
+    tests = []  # (p, a_p(E)) for the first 12 good p with a_p ≠ 0
+    for q in (int(x) for x in pari.primes(TWIST_TEST_PRIMES)):
+        if q not in bad and len(tests) < 12 and int(pari.ellap(E, q)):
+            tests.append((q, int(pari.ellap(E, q))))
     support = sorted(bad)
     for size in range(len(support) + 1):
         for subset in combinations(support, size):
@@ -74,7 +82,7 @@ def codomain_candidates(model: Curve, ell: int):
                     d *= q
                 twist, _ = Curve(_twisted(base_min, d)).minimal_model()
                 T = pari.ellinit([int(c) for c in twist.a])
-                if all(int(pari.ellap(T, q)) == trace for q, trace in zip(good, traces)):
+                if all(int(pari.ellap(T, q)) == trace for q, trace in tests):
                     c4, c6 = twist.c4, twist.c6
                     for u in (Fraction(1), Fraction(ell), Fraction(1, ell)):
                         yield -27 * c4 / u ** 4, -54 * c6 / u ** 6

@@ -6,36 +6,45 @@ Salvy and Schost 2008, Math. Comp. 77). Comparing coefficients of x^{2−k} give
 (2k + 3)·τ_k = R_k, with R_k built from τ_1 … τ_{k−1}, so τ_1 = (A − A′)/5 and τ_2 = (B − B′)/7 as in
 Vélu's formulas. X − x = M/h² with deg M < deg h² = ℓ − 1, so the τ_k satisfy the linear recurrence
 whose characteristic polynomial is h²; the Berlekamp–Massey algorithm finds it from 2(ℓ − 1) terms.
-All of this runs modulo word-sized primes, and the coefficients of h are recovered by the Chinese
+All of this runs modulo primes (see LARGE_PRIME_BITS), and the coefficients of h are recovered by the Chinese
 remainder theorem and rational reconstruction; the candidate is then checked exactly (its Vélu codomain here, the isogeny identity by the caller).
 """
 from fractions import Fraction
 from math import isqrt
+from operator import mul
 
 from certify.pari import pari
 from certify.verifier.isogeny import velu_codomain
 
-MAX_PRIMES = 400
+MAX_PRIMES = 100
+"""Primes tried before giving up (the first word-sized, the others of LARGE_PRIME_BITS bits)."""
+
+LARGE_PRIME_BITS = 256
+"""Size of the primes after the first: a 256-bit prime costs Python's integers about 2.5 times less per
+bit of the residues than a word-sized one; the first prime is word-sized, so that a wrong codomain,
+which fails at any prime, is rejected cheaply."""
 
 
 def recurrence_terms(A: int, B: int, A2: int, B2: int, count: int, p: int) -> list:
-    """[τ_1, …, τ_count] mod p for the formal solution X = x + Σ τ_k x^{−k} of f·X′² = X³ + A′X + B′."""
+    """[τ_1, …, τ_count] mod p for the formal solution X = x + Σ τ_k x^{−k} of f·X′² = X³ + A′X + B′.
+    The convolutions run as C loops (map, sum); Σ i(k−1−i)·τ_i·τ_{k−1−i} is that of the i·τ_i."""
     tau = [0] * (count + 1)          # tau[k] = τ_k, tau[0] unused
+    scaled = [0] * (count + 1)       # scaled[k] = k·τ_k
     squares = [0] * (count + 2)      # squares[m] = coefficient of x^{−m} in (X − x)²
     primes = [1, 0] + [0] * count    # primes[m] = coefficient of x^{−m} in X′²
     cubes = [0] * (count + 2)        # cubes[m] = coefficient of x^{−m} in (X − x)³
     for k in range(1, count + 1):
-        weighted = sum((i * (k - 1 - i) - 3) * tau[i] * tau[k - 1 - i] for i in range(1, k - 1))
-        value = weighted + A * primes[k - 1] + (B * primes[k - 2] if k >= 2 else 0)
+        products = sum(map(mul, scaled[1:k - 1], scaled[k - 2:0:-1]))
+        value = products - 3 * squares[k - 1] + A * primes[k - 1] + (B * primes[k - 2] if k >= 2 else 0)
         value -= cubes[k - 2] if k >= 2 else 0
         value -= A2 if k == 1 else (tau[k - 2] * A2 if k >= 3 else 0)
         value -= B2 if k == 2 else 0
         tau[k] = value * pow(2 * k + 3, -1, p) % p
-        squares[k] = sum(tau[i] * tau[k - i] for i in range(1, k)) % p
+        scaled[k] = k * tau[k] % p
+        squares[k] = sum(map(mul, tau[1:k], tau[k - 1:0:-1])) % p
         if k + 1 <= count:
-            primes[k + 1] = (-2 * k * tau[k] + sum(i * (k - 1 - i) * tau[i] * tau[k - 1 - i]
-                                                   for i in range(1, k - 1))) % p
-        cubes[k] = sum(squares[i] * tau[k - i] for i in range(2, k)) % p
+            primes[k + 1] = (-2 * k * tau[k] + products) % p
+        cubes[k] = sum(map(mul, squares[2:k], tau[k - 2:0:-1])) % p
     return tau[1:]
 
 
@@ -45,7 +54,7 @@ def berlekamp_massey(sequence: list, p: int) -> list:
     c, b = [1], [1]
     length, shift, last = 0, 1, 1
     for n, term in enumerate(sequence):
-        discrepancy = (term + sum(c[i] * sequence[n - i] for i in range(1, length + 1))) % p
+        discrepancy = (term + sum(map(mul, c[1:length + 1], sequence[n - length:n][::-1]))) % p
         if discrepancy == 0:
             shift += 1
             continue
@@ -99,9 +108,8 @@ def kernel_from_codomain(A: Fraction, B: Fraction, A2: Fraction, B2: Fraction, e
     short, target = (0, 0, 0, Fraction(A), Fraction(B)), (0, 0, 0, Fraction(A2), Fraction(B2))
     count = 2 * (ell - 1) + 2
     residues, modulus, previous = None, 1, None
-    p = pari.nextprime(2 ** 62)
+    p = int(pari.nextprime(2 ** 62))
     for _ in range(MAX_PRIMES):
-        p = int(pari.nextprime(p + 1))
         values = [int(Fraction(v).numerator * pow(Fraction(v).denominator, -1, p) % p) for v in (A, B, A2, B2)]
         square = berlekamp_massey(recurrence_terms(*values, count, p), p)
         if len(square) != ell:
@@ -118,6 +126,7 @@ def kernel_from_codomain(A: Fraction, B: Fraction, A2: Fraction, B2: Fraction, e
         candidate = [reconstruct(r, modulus) for r in residues]
         if None in candidate or candidate != previous:
             previous = candidate
+            p = int(pari.nextprime(max(p, 2 ** LARGE_PRIME_BITS) + 1))
             continue
         return candidate if velu_codomain(short, ell, candidate) == target else None
     return None
