@@ -6,8 +6,9 @@ of the lines of the batch file (the ``input_line`` of its metadata) — with the
 is one, the curve as a Weierstrass equation, then for each kind of certificate its facts and a column
 with its digest (short in LaTeX and Markdown, full in CSV): E(Q)_tors as Z/n1Z × Z/n2Z ("trivial"
 for the trivial group), the size of the isogeny class and the sorted degrees of the cyclic isogenies
-from the curve to its members. A later kind of certificate adds its facts and its digest column by one
-entry in KINDS. Only certificates the verifier accepts are tabulated.
+from the curve to its members, the conductor N. A later kind of certificate adds its facts and its
+digest column by one entry in KINDS, as the conductor did. Only certificates the verifier accepts are
+tabulated.
 
 The LaTeX is a ``longtable`` with ``booktabs`` rules that breaks across pages, repeats its head on
 each page, wraps long equations (between terms, and inside numbers of many digits) within the text
@@ -47,8 +48,10 @@ class Fact:
 
 @dataclass(frozen=True)
 class Kind:
-    """A kind of certificate as the table shows it: its facts and the heading of its digest column."""
+    """A kind of certificate as the table shows it: what the caption calls its claims, its facts and the
+    heading of its digest column."""
     name: str
+    plural: str
     digest_heading: str
     facts: tuple
 
@@ -70,17 +73,20 @@ def listed(values) -> str:
     return "[" + ",".join(map(str, values)) + "]"
 
 
-TORSION = Kind("torsion", "torsion certificate", (
+TORSION = Kind("torsion", "torsion subgroups", "torsion certificate", (
     Fact("E(Q)_tors", "$E(\\mathbb{Q})_{\\mathrm{tors}}$", 15,
          lambda cert: [int(n) for n in cert["claim"]["invariants"]], group_in_words, latex_group,
          (("torsion", group_in_words), ("torsion_invariants", listed))),
 ))
-ISOGENY_CLASS = Kind("class", "class certificate", (
+ISOGENY_CLASS = Kind("class", "isogeny classes", "class certificate", (
     Fact("class size", "class size", 6, lambda cert: class_facts(cert)[0], str, str, (("class_size", str),)),
     Fact("isogeny degrees from E", "isogeny degrees from $E$", 11, lambda cert: class_facts(cert)[1],
          lambda d: ", ".join(map(str, d)), lambda d: ", ".join(map(str, d)), (("degrees", listed),)),
 ))
-KINDS = {"certify-torsion": TORSION, "certify-isogeny-class": ISOGENY_CLASS}
+CONDUCTOR = Kind("conductor", "conductors", "conductor certificate", (
+    Fact("conductor N", "conductor $N$", 11, lambda cert: int(cert["claim"]["conductor"]), str, str, (("conductor", str),)),
+))
+KINDS = {"certify-torsion": TORSION, "certify-isogeny-class": ISOGENY_CLASS, "certify-conductor": CONDUCTOR}
 """Certificate format → how the table shows it, in column order."""
 
 
@@ -169,43 +175,71 @@ def hex_breaks(full: str) -> str:
     return "\\texttt{" + "\\allowbreak ".join(groups) + "}"
 
 
-def latex_caption(bundles: list) -> str:
+def latex_caption(kinds: list, bundles: list) -> str:
     """What the table shows, the certify version, and the digest of each bundle it tabulates."""
     where = (" The certificates are in the bundle" + ("s" if len(bundles) > 1 else "") + " with digest "
              + ", ".join(hex_breaks(d) for d in bundles) + ".") if bundles else ""
-    return (f"Torsion subgroups and isogeny classes certified by certify {__version__}; each certificate "
+    shown = [kind.plural for kind in kinds]
+    what = ", ".join(shown[:-1]) + " and " + shown[-1] if len(shown) > 1 else "".join(shown)
+    return (f"{what[:1].upper()}{what[1:]} certified by certify {__version__}; each certificate "
             f"column gives the first 12 hex digits of that certificate's SHA-256 digest.{where}")
 
 
+def latex_digest(full: str, lines: int) -> str:
+    """The first 12 hex digits of a digest in typewriter type, breakable into ``lines`` lines."""
+    digits, step = short(full), 12 // lines
+    return "\\texttt{" + "\\allowbreak ".join(digits[i:i + step] for i in range(0, 12, step)) + "}"
+
+
+def digest_width(kind: Kind, digits: int) -> list:
+    """LaTeX setting the length \\certify<kind>digest: as wide as ``digits`` hex digits, or as the kind's
+    name heading the column, whichever is wider."""
+    length = f"\\certify{kind.name}digest"
+    return [f"\\ifdefined{length}\\else\\newlength{{{length}}}\\fi",
+            f"\\settowidth{{{length}}}{{\\texttt{{{'0' * digits}}}}}", f"\\settowidth{{\\certifyword}}{{{kind.name}}}",
+            f"\\ifdim\\certifyword>{length}\\setlength{{{length}}}{{\\certifyword}}\\fi"]
+
+
 def latex(rows: list, document: bool, bundles: list = ()) -> str:
-    """A longtable for ``\\input`` (or, with ``document``, a whole article that compiles with pdflatex)."""
+    """A longtable for ``\\input`` (or, with ``document``, a whole article that compiles with pdflatex):
+    the facts of each kind of certificate, then under "certificate digests" one column per kind, named
+    for it; with more than two kinds the 12 digits of a digest go on three lines of 4."""
     kinds = shown_kinds(rows)
+    lines_per_digest = 1 if len(kinds) <= 2 else 3
     labelled = any(row["label"] for row in rows)
     ragged = ">{\\raggedright\\arraybackslash}p"
     facts = [fact for kind in kinds for fact in kind.facts]
     shares = sum(fact.latex_width for fact in facts) + (9 if labelled else 0)
-    columns = len(facts) + len(kinds) + 1 + labelled
-    curve_width = (f"\\dimexpr\\linewidth*{100 - shares}/100-{len(kinds)}\\certifydigest"
-                   f"-{2 * (columns - 1)}\\tabcolsep\\relax")
+    columns = labelled + 1 + len(facts) + len(kinds)
+    curve_width = (f"\\dimexpr\\linewidth*{100 - shares}/100"
+                   + "".join(f"-\\certify{kind.name}digest" for kind in kinds)
+                   + f"-{2 * (columns - 1)}\\tabcolsep\\relax")
     spec = ([f"{ragged}{{\\dimexpr\\linewidth*9/100\\relax}}"] if labelled else []) + [f"{ragged}{{{curve_width}}}"]
-    heading = (["label"] if labelled else []) + ["curve $E$"]
-    for kind in kinds:
-        spec += [f"{ragged}{{\\dimexpr\\linewidth*{fact.latex_width}/100\\relax}}" for fact in kind.facts]
-        spec.append(f"{ragged}{{\\certifydigest}}")
-        heading += [fact.latex_heading for fact in kind.facts] + [kind.digest_heading]
-    head = " & ".join(heading) + " \\\\"
+    spec += [f"{ragged}{{\\dimexpr\\linewidth*{fact.latex_width}/100\\relax}}" for fact in facts]
+    spec += [f"{ragged}{{\\certify{kind.name}digest}}" for kind in kinds]
+    first_digest = columns - len(kinds) + 1
+    head = [" & " * (first_digest - 1) + f"\\multicolumn{{{len(kinds)}}}{{c}}"
+            "{\\begin{tabular}{@{}c@{}}certificate\\\\digests\\end{tabular}} \\\\",
+            f"\\cmidrule(l){{{first_digest}-{columns}}}",
+            " & ".join((["label"] if labelled else []) + ["curve $E$"] + [fact.latex_heading for fact in facts]
+                       + [kind.name for kind in kinds]) + " \\\\"]
     lines = ["% certify table: a longtable (packages " + LATEX_PACKAGES + ")",
              "\\begingroup", "\\footnotesize", "\\setlength{\\tabcolsep}{3pt}",
-             "\\ifdefined\\certifydigest\\else\\newlength{\\certifydigest}\\fi",
-             "\\settowidth{\\certifydigest}{\\texttt{000000000000}}",
+             "\\ifdefined\\certifyword\\else\\newlength{\\certifyword}\\fi",
+             *(line for kind in kinds for line in digest_width(kind, 12 // lines_per_digest)),
              "\\begin{longtable}{@{}" + "".join(spec) + "@{}}",
-             "\\caption{" + latex_caption(list(bundles)) + "}\\\\",
-             "\\toprule", head, "\\midrule", "\\endfirsthead",
-             "\\multicolumn{" + str(columns) + "}{@{}l}{\\emph{(continued)}}\\\\", "\\toprule", head, "\\midrule",
+             "\\caption{" + latex_caption(kinds, list(bundles)) + "}\\\\",
+             "\\toprule", *head, "\\midrule", "\\endfirsthead",
+             "\\multicolumn{" + str(columns) + "}{@{}l}{\\emph{(continued)}}\\\\", "\\toprule", *head, "\\midrule",
              "\\endhead", "\\bottomrule", "\\endfoot"]
     for row in rows:
         row_cells = ([latex_text(row["label"])] if labelled else []) + [latex_curve(row["curve"])]
-        row_cells += cells(row, kinds, "latex", lambda d: f"\\texttt{{{short(d)}}}", "--")
+        for kind in kinds:
+            entry = row.get(kind.name)
+            row_cells += ["--" if entry is None else fact.latex(value)
+                          for fact, value in zip(kind.facts, entry["facts"] if entry else [None] * len(kind.facts))]
+        row_cells += ["--" if row.get(kind.name) is None else latex_digest(row[kind.name]["digest"], lines_per_digest)
+                      for kind in kinds]
         lines.append(" & ".join(row_cells) + " \\\\")
     lines += ["\\end{longtable}", "\\endgroup"]
     if document:

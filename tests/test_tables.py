@@ -125,10 +125,14 @@ def test_markdown_has_one_row_per_curve_with_short_digests_in_named_columns(cert
 
 
 def test_latex_digest_columns_are_named_for_their_kind(certificates):
+    """Under the heading "certificate digests", a column per kind named for it, each digest in its own."""
     text = table(*(path for path, _ in certificates), "--format", "latex").stdout
-    head = next(line for line in text.splitlines() if line.startswith("curve $E$"))
-    assert "torsion certificate" in head and "class certificate" in head
-    assert text.count("\\texttt{") == len(certificates) + 1  # + the digest width measured in the preamble
+    lines = text.splitlines()
+    head = next(line for line in lines if line.startswith("curve $E$"))
+    assert head.endswith("& torsion & class \\\\") and "certificate\\\\digests" in text
+    for cert in torsion_certificates(certificates):
+        row = next(line for line in lines if f"\\texttt{{{short(digest(cert))}}}" in line)
+        assert row.split(" & ")[-2] == f"\\texttt{{{short(digest(cert))}}}"
 
 
 def test_labels_and_the_batch_files_order_are_kept(labelled_batch):
@@ -186,6 +190,35 @@ def test_latex_of_a_curve_with_60_digit_coefficients_stays_inside_the_text_width
         paths.append(str(tmp_path / f"{kind}.json"))
         assert certify(kind, f"[1,-1,1,-{a4},{a6}/7]", "-o", paths[-1]).returncode == 0
     log, _ = compile_latex(tmp_path, table(*paths, "--format", "latex", "--document").stdout)
+    assert "Overfull" not in log
+
+
+@pytest.fixture(scope="module")
+def three_kinds(certificates, tmp_path_factory):
+    """The module's certificates and a conductor certificate of each curve (certify conductor)."""
+    folder = tmp_path_factory.mktemp("conductor")
+    paths = [path for path, _ in certificates]
+    for i, curve in enumerate(CURVES):
+        paths.append(str(folder / f"c{i}.conductor.json"))
+        assert certify("conductor", curve, "-o", paths[-1]).returncode == 0
+    return paths
+
+
+def test_a_later_kind_adds_its_columns_the_same_way(three_kinds):
+    """The conductor certificate brings its column and its digest column; each conductor is cypari2's
+    (ellglobalred) for the curve."""
+    rows = list(csv.DictReader(io.StringIO(table(*three_kinds, "--format", "csv").stdout)))
+    assert len(rows) == len(CURVES)
+    for row in rows:
+        assert int(row["conductor"]) == int(pari.ellglobalred(pari.ellinit([str(c) for c in parse_curve(row["coefficients"])]))[0])
+        assert row["conductor_digest"].startswith("sha256:") and row["torsion_digest"] and row["class_digest"]
+    head = table(*three_kinds, "--format", "markdown").stdout.splitlines()[0]
+    assert head.endswith("| conductor N | conductor certificate |")
+
+
+@PDFLATEX
+def test_latex_with_three_kinds_of_certificate_stays_inside_the_text_width(three_kinds, tmp_path):
+    log, _ = compile_latex(tmp_path, table(*three_kinds, "--format", "latex", "--document").stdout)
     assert "Overfull" not in log
 
 
