@@ -23,14 +23,15 @@ from typing import Sequence, Union
 from certify.certificates import certify_checked, to_json, write_atomically
 from certify.curves import CurveInputError, curve_from_numbers, parse_curve
 
-__all__ = ["CertifyError", "Certificate", "IsogenyClassClaim", "TorsionClaim", "Verdict", "certify_isogeny_class",
-           "certify_torsion", "curve", "read_certificate", "verify", "verify_all"]
+__all__ = ["BadPrime", "CertifyError", "Certificate", "ConductorClaim", "IsogenyClassClaim", "TorsionClaim", "Verdict",
+           "certify_conductor", "certify_isogeny_class", "certify_torsion", "curve", "read_certificate", "verify",
+           "verify_all"]
 
 Number = Union[int, Fraction, str]
 CurveSpec = Union[str, Sequence[Number]]
 Path = Union[str, "os.PathLike[str]"]
 
-FORMATS = {"certify-torsion": "torsion", "certify-isogeny-class": "isogeny-class"}
+FORMATS = {"certify-torsion": "torsion", "certify-isogeny-class": "isogeny-class", "certify-conductor": "conductor"}
 
 
 class CertifyError(ValueError):
@@ -81,13 +82,34 @@ class IsogenyClassClaim:
 
 
 @dataclass(frozen=True)
+class BadPrime:
+    """The local data of E at a prime p of bad reduction: f_p, the Kodaira symbol ('I5', 'I0*', …), the
+    Tamagawa number c_p and the kind of reduction ('split multiplicative', 'non-split multiplicative',
+    'additive')."""
+    prime: int
+    conductor_exponent: int
+    kodaira_symbol: str
+    tamagawa_number: int
+    reduction: str
+
+
+@dataclass(frozen=True)
+class ConductorClaim:
+    """The conductor N = ∏ p^f_p, the discriminant of the reduced minimal model, and the local data at each
+    bad prime, in increasing order."""
+    conductor: int
+    minimal_discriminant: int
+    bad_primes: tuple[BadPrime, ...]
+
+
+@dataclass(frozen=True)
 class Certificate:
     """A certificate as certify writes it: ``document`` is its JSON object (all numbers decimal strings)."""
     document: dict
 
     @property
     def kind(self) -> str:
-        """'torsion' or 'isogeny-class'."""
+        """'torsion', 'isogeny-class' or 'conductor'."""
         return FORMATS[self.document["format"]]
 
     @property
@@ -96,12 +118,16 @@ class Certificate:
         return tuple(Fraction(c) for c in self.document["curve"])
 
     @property
-    def claim(self) -> Union[TorsionClaim, IsogenyClassClaim]:
+    def claim(self) -> Union[TorsionClaim, IsogenyClassClaim, ConductorClaim]:
         """What the certificate claims, in Python types."""
         claim = self.document["claim"]
         if self.kind == "torsion":
             return TorsionClaim(tuple(int(n) for n in claim["invariants"]),
                                 tuple((Fraction(x), Fraction(y)) for x, y in claim["generators"]))
+        if self.kind == "conductor":
+            return ConductorClaim(int(claim["conductor"]), int(claim["minimal_discriminant"]), tuple(
+                BadPrime(int(p["prime"]), int(p["conductor_exponent"]), p["kodaira_symbol"], int(p["tamagawa_number"]),
+                         p["reduction"]) for p in claim["bad_primes"]))
         return IsogenyClassClaim(tuple(tuple(Fraction(c) for c in a) for a in claim["curves"]),
                                  tuple(tuple(int(d) for d in row) for row in claim["degrees"]))
 
@@ -132,6 +158,11 @@ def certify_torsion(spec: CurveSpec) -> Certificate:
 def certify_isogeny_class(spec: CurveSpec) -> Certificate:
     """The isogeny-class certificate of the curve, already accepted by the verifier."""
     return _certify("isogeny-class", spec)
+
+
+def certify_conductor(spec: CurveSpec) -> Certificate:
+    """The conductor certificate of the curve, already accepted by the verifier."""
+    return _certify("conductor", spec)
 
 
 def _certify(kind: str, spec: CurveSpec) -> Certificate:

@@ -123,16 +123,18 @@ def check_model_size(a) -> None:
 
 
 def certify_checked(kind: str, a) -> dict:
-    """The stamped certificate of ``kind`` ('torsion' or 'isogeny-class') for the coefficients ``a``
+    """The stamped certificate of ``kind`` ('torsion', 'isogeny-class' or 'conductor') for the coefficients ``a``
     (five Fractions, as parse_curve returns them), rechecked by the verifier before it is returned:
     a certificate the verifier would reject, over its limits say, raises NotCertifiable with the
     rejection on one line instead."""
     from certify.verifier import verify
     from certify.verifier.errors import Rejection
 
+    from certify.conductor import certify_conductor
+
     check_model_size(a)
     try:
-        cert = stamp(certifiers()[kind](a))
+        cert = stamp({**certifiers(), "conductor": certify_conductor}[kind](a))
     except ValueError as error:
         if "integer string conversion" not in str(error):
             raise

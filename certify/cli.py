@@ -14,9 +14,8 @@ import sys
 
 from certify import __version__
 from certify.curves import Curve, CurveInputError, parse_curve
-from certify.certificates import (NotAccepted, accepted_certificates, certify_checked, emit, stamp, to_json,
+from certify.certificates import (NotAccepted, accepted_certificates, certify_checked, emit, to_json,
                                   write_atomically)
-from certify.conductor import certify_conductor
 from certify.verifier.digest import digest
 from certify.verifier.report import describe_claim
 
@@ -32,7 +31,7 @@ def certify_command(kind: str, text: str, output: str | None) -> int:
     words and the digest to stderr, so that stdout holds the JSON alone."""
     try:
         a = parse_curve(text)
-        cert = stamp(certify_conductor(a)) if kind == "conductor" else certify_checked(kind, a)
+        cert = certify_checked(kind, a)
     except CurveInputError as error:
         return fail(str(error))
     emit(to_json(cert), output)

@@ -37,6 +37,17 @@ def test_both_kinds_from_text_and_from_numbers_give_the_same_certificates():
     assert isogeny.claim.degrees_from_curve == tuple(sorted(int(d) for d in matrix[0]))
 
 
+def test_a_conductor_certificate_in_python_types():
+    """The conductor and the local data at each bad prime agree with cypari2's ellglobalred (conductor,
+    [p, f_p, Kodaira code, c_p] rows) on a curve with additive and multiplicative reduction."""
+    cert = api.certify_conductor("y^2 = x^3 + 2x^2 - 15x")
+    assert cert.kind == "conductor" and api.verify(cert).accepted
+    conductor, _, _, factored, local = pari.ellglobalred(pari.ellinit([0, 2, 0, -15, 0]))[:5]
+    assert cert.claim.conductor == int(conductor)
+    assert [(p.prime, p.conductor_exponent, p.tamagawa_number) for p in cert.claim.bad_primes] == \
+        [(int(p), int(f), int(data[3])) for p, f, data in zip(factored[0], factored[1], local)]
+
+
 def test_write_serialise_and_verify_an_object_a_document_and_a_file(tmp_path):
     cert = api.certify_torsion([0, 0, 0, -1, 0])
     path = tmp_path / "c.json"
