@@ -46,7 +46,7 @@ class OutputError(OSError):
 
 
 def write_atomically(path: str, text: str, durable: bool = True) -> None:
-    """Write ``text`` to ``path`` through a temporary file in the same folder and a rename, so that an
+    """Write ``text`` (str, or bytes as they are) to ``path`` through a temporary file in the same folder and a rename, so that an
     interrupt or a full disk never leaves a half-written file under ``path``. ``durable`` also waits
     for the disk (fsync) before the rename, against power cuts; a writer of many files may instead
     sync once at the end. Raises OutputError when the file cannot be written."""
@@ -56,7 +56,7 @@ def write_atomically(path: str, text: str, durable: bool = True) -> None:
     except OSError as error:
         raise OutputError(path, error) from None
     try:
-        with os.fdopen(handle, "w", encoding="utf-8") as out:
+        with (os.fdopen(handle, "wb") if isinstance(text, bytes) else os.fdopen(handle, "w", encoding="utf-8")) as out:
             out.write(text)
             out.flush()
             if durable:
@@ -158,8 +158,8 @@ def accepted_certificates(sources) -> list:
 
     out = []
     for task in all_tasks(sources):
-        for name, document, recorded in entries(task):
-            verdict = check(name, document, recorded)
+        for name, document, recorded, label in entries(task)[0]:
+            verdict = check(name, document, recorded, label=label)
             if not verdict["accepted"]:
                 raise NotAccepted(f"{name}: rejected — {verdict['reason']}")
             out.append((name, document, verdict))

@@ -55,14 +55,14 @@ def table_command(sources: list, form: str, document: bool, output: str | None) 
 
 def bundle_command(sources: list, output: str) -> int:
     """Bundle accepted certificates into one file; prints the bundle's digest and member count."""
-    from certify.bundle import build_bundle
+    from certify.bundle import build_bundle, bundle_file
 
     try:
         certificates = accepted_certificates(sources)
     except NotAccepted as error:
         return fail(str(error))
     bundle = build_bundle(certificates)
-    write_atomically(output, to_json(bundle))
+    write_atomically(output, bundle_file(bundle, output))
     print(f"{len(certificates)} certificates bundled into {output}\ndigest {digest(bundle)}", file=sys.stderr)
     return 0
 

@@ -48,7 +48,8 @@ def run(entry: str, *arguments: str, cwd=None) -> subprocess.CompletedProcess:
 def assert_answered(result: subprocess.CompletedProcess, certificates: int = 1, jsonl: bool = False) -> list:
     """Exit status 0, 1 or 2, no traceback, no terminal-active character, and one verdict per certificate
     (``--quiet``: lines starting 'accepted: ' or 'rejected: '; ``--jsonl``: JSON objects with the keys file,
-    accepted, reason). Returns the verdicts (lines or parsed objects)."""
+    accepted, reason, digest, and for each bundle one more with members). Returns the verdicts (lines or
+    parsed objects), bundle objects left out."""
     stdout = result.stdout.decode("utf-8")
     stderr = result.stderr.decode("utf-8", errors="replace")
     assert result.returncode in (0, 1, 2), (result.returncode, stderr[-2000:])
@@ -56,8 +57,10 @@ def assert_answered(result: subprocess.CompletedProcess, certificates: int = 1, 
     assert not TERMINAL_ACTIVE.search(stdout), repr(TERMINAL_ACTIVE.search(stdout).group())
     lines = [line for line in stdout.split("\n") if line]
     if jsonl:
-        verdicts = [json.loads(line) for line in lines]
-        assert all(set(v) == {"file", "accepted", "reason"} for v in verdicts), verdicts
+        objects = [json.loads(line) for line in lines]
+        verdicts = [v for v in objects if "members" not in v]
+        assert all(set(v) == {"file", "accepted", "reason", "digest"} for v in verdicts), verdicts
+        assert all(set(v) == {"file", "accepted", "reason", "digest", "members"} for v in objects if "members" in v)
     else:
         verdicts = [line for line in lines if line.startswith(("accepted: ", "rejected: "))]
     assert len(verdicts) == certificates, stdout[-2000:]

@@ -55,7 +55,7 @@ def test_verify_exit_codes_and_jsonl(tmp_path):
     run = certify("verify", "--jsonl", str(good), str(bad))
     assert run.returncode == 1
     rows = [json.loads(line) for line in run.stdout.splitlines()]
-    assert [set(row) for row in rows] == [{"file", "accepted", "reason"}] * 2
+    assert [set(row) for row in rows] == [{"file", "accepted", "reason", "digest"}] * 2
     assert [row["accepted"] for row in rows] == [True, False]
     assert rows[1]["reason"].startswith("generators") or rows[1]["reason"].startswith("generator orders")
     assert certify("verify", str(good), str(broken)).returncode == 2

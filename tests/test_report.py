@@ -32,7 +32,7 @@ def test_report_states_curve_claim_checks_theorems_digest_and_time(tmp_path):
     assert f"accepted: {path}" in text
     assert "E: " + Curve(parse_curve("[1,0,1,-19,26]")).equation() in text
     assert "E(Q)_tors ≅ " + " × ".join(f"Z/{n}Z" for n in cert["claim"]["invariants"]) in text
-    assert "primes recounted" in text and digest(cert) in text and re.search(r"time\s+\d+\.\d{3} s", text)
+    assert "recounted at" in text and digest(cert) in text and re.search(r"time\s+\d+\.\d{3} s", text)
     assert "WORDING OF THE CERTIFICATE" not in text
     flat = " ".join(text.split())
     for entry in cert["relies_on"]:
@@ -54,7 +54,7 @@ def test_quiet_one_line_each_jsonl_exact_keys_and_standalone_same_report(tmp_pat
     quiet = run("-m", "certify", "verify", "--quiet", *paths).stdout.splitlines()
     assert len(quiet) == 3 and all(line.startswith("accepted: " + path) for line, path in zip(quiet, paths))
     lines = run("-m", "certify", "verify", "--jsonl", *paths).stdout.splitlines()
-    assert [set(json.loads(line)) for line in lines] == [{"file", "accepted", "reason"}] * 2
+    assert [set(json.loads(line)) for line in lines] == [{"file", "accepted", "reason", "digest"}] * 2
     without_time = lambda text: re.sub(r"\d+\.\d{3} s", "", text)
     assert without_time(run("-m", "certify.verifier", *paths).stdout) == \
         without_time(run("-m", "certify", "verify", *paths).stdout)
@@ -68,7 +68,7 @@ def test_isogeny_class_report_lists_the_curves_and_the_degree_matrix(tmp_path):
     cert = certify_isogeny_class(parse_curve("[0,2,0,-15,0]"))
     text = run("-m", "certify.verifier", write(tmp_path, "class.json", cert)).stdout
     curves, matrix = pari.ellisomat(pari.ellinit([0, 2, 0, -15, 0]))
-    assert f"consists of {len(curves)} curve(s)" in text
+    assert f"consists of {len(curves)} curves" in text
     for i, a in enumerate(cert["claim"]["curves"]):
         assert f"E{i + 1}: {Curve(parse_curve('[' + ','.join(a) + ']')).equation()}" in text
     rows = [line.split() for line in text.splitlines() if re.fullmatch(r"\s+[\d ]+", line)]

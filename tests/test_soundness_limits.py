@@ -230,7 +230,7 @@ def test_file_over_the_size_limit_is_not_parsed(tmp_path, monkeypatch):
     with open(path, "wb") as handle:
         handle.truncate(limits.MAX_FILE_BYTES + 1)
     tripwire(monkeypatch, sources, "parse")
-    ((_, document, _),) = sources.documents(("file", str(path)))
+    ((_, document, _, _),), _ = sources.documents(("file", str(path)))
     assert isinstance(document, sources.Unreadable) and str(limits.MAX_FILE_BYTES) in str(document)
 
 

@@ -42,7 +42,7 @@ def assert_cli_sound(documents: list) -> None:
     unreadable = rejected = 0
     for data, line in zip(documents, lines):
         verdict = json.loads(line)
-        assert set(verdict) == {"file", "accepted", "reason"} and verdict["reason"]
+        assert set(verdict) == {"file", "accepted", "reason", "digest"} and verdict["reason"]
         if verdict["accepted"]:
             assert claim_is_true(json.loads(data)), "FALSE ACCEPT through the command line"
         elif verdict["reason"].startswith("unreadable"):

@@ -100,5 +100,5 @@ def test_unknown_bundle_version_is_named():
     from certify.verifier import sources
 
     bundle = {"format": "certify-bundle", "version": "7", "manifest": {"count": "0", "members": []}, "members": []}
-    ((_, verdict, _),) = sources.bundle_members("appendix.json", bundle)
+    ((_, verdict, _, _),) = sources.bundle_members("appendix.json", bundle)
     assert isinstance(verdict, sources.Unreadable) and "'7'" in str(verdict)

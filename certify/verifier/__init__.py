@@ -6,6 +6,9 @@ that failed and the values involved. Nothing here imports the rest of certify.
 from certify.verifier.errors import Rejection
 from certify.verifier.certificate import check_shape, field
 
+VERSION = "0.1.0"
+"""The verifier's version; certify's own version is the same (tests/test_kit.py checks it)."""
+
 
 def checkers() -> dict:
     """format name → (accepted versions, check function)."""

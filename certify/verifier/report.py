@@ -73,7 +73,7 @@ def claim_lines(cert: dict) -> list:
         return textwrap.wrap(describe_claim(cert), WIDTH - 16)
     curves, degrees = cert["claim"]["curves"], cert["claim"]["degrees"]
     width = max(len(d) for row in degrees for d in row)
-    lines = [f"the isogeny class of E consists of {len(curves)} curve(s) up to isomorphism over Q:"]
+    lines = [f"the isogeny class of E consists of {plural(len(curves), 'curve')} up to isomorphism over Q:"]
     lines += [f"E{i + 1}: {equation(a)}" + ("  (≅ E)" if i == 0 else "") for i, a in enumerate(curves)]
     lines.append("degree of the cyclic isogeny Ei → Ej (row i, column j):")
     lines += ["  " + " ".join(d.rjust(width) for d in row) for row in degrees]
@@ -110,7 +110,7 @@ def class_facts(cert: dict) -> tuple:
 
 
 def assumptions(keys) -> list:
-    """Report lines for the theorems a certificate relies on: statement, then reference, indented."""
+    """Report lines for the theorems relied on: statement, then reference, indented."""
     lines = []
     for key in keys:
         if key not in THEOREMS:
@@ -122,21 +122,69 @@ def assumptions(keys) -> list:
     return lines
 
 
+def plural(n: int, noun: str, many: str = "") -> str:
+    """'1 prime', '2 primes'; ``many`` for an irregular plural."""
+    return f"{n} {noun if n == 1 else many or noun + 's'}"
+
+
+WITNESS_METHODS = {
+    "frobenius": "by Frobenius at a prime p (a_p² − 4p not a square mod ℓ)",
+    "x0-roots": "by the rational points of X_0(ℓ) above j(E)",
+    "division-roots": "by the rational roots of a division polynomial",
+    "j-list": "by the finite list of j-invariants with an ℓ-isogeny",
+}
+"""How each kind of completeness witness bounds the rational ℓ-isogenies of a curve."""
+
+
+def check_sentences(checks: dict) -> list:
+    """What the checks established, in words, naming the primes and counts used."""
+    if "primes" in checks:
+        primes = checks["primes"]
+        return [f"{plural(checks['generators'], 'generator')} on E with the claimed orders, generating "
+                f"{plural(checks['group elements'], 'point')};",
+                f"#E(F_p) recounted at {plural(len(primes), 'prime')} of good reduction ("
+                + ", ".join(f"p = {p}: {count}" for p, count in primes.items()) + "), each a multiple of |E(Q)_tors|;",
+                f"{plural(checks['polynomials solved'], 'division polynomial')} solved exactly for the ℓ-parts "
+                "(all rational roots, found from a prime hint)."]
+    if "witnesses" in checks:
+        degrees = ", ".join(str(d) for d in checks["kernels"])
+        witnesses = checks["witnesses"]
+        return [f"{plural(checks['curves'], 'listed curve')} shown to be reduced minimal models, no two isomorphic;",
+                f"{plural(len(checks['kernels']), 'kernel polynomial')} rechecked"
+                + (f" (degrees {degrees}): each defines an isogeny over Q of its degree to the listed target, by "
+                   "Vélu's formulas and one exact polynomial identity;" if checks["kernels"] else ";"),
+                f"{plural(sum(witnesses.values()), 'completeness witness', 'completeness witnesses')} — one for each "
+                "listed curve and each prime ℓ of Mazur's list, bounding its rational ℓ-isogenies: "
+                + "; ".join(f"{n} {WITNESS_METHODS.get(method, method)}" for method, n in sorted(witnesses.items()))
+                + "."]
+    return [", ".join(f"{value} {key}" for key, value in checks.items()) + "."]
+
+
 def counts(checks: dict) -> str:
-    """'2 points checked, 8 group elements, …' from the verifier's counts."""
+    """A short summary of the checks for one line: '2 generators, 1 prime, 0 polynomials'."""
+    if "primes" in checks:
+        return (f"{plural(checks['generators'], 'generator')}, {plural(len(checks['primes']), 'prime')} recounted, "
+                f"{plural(checks['polynomials solved'], 'polynomial')} solved")
+    if "witnesses" in checks:
+        return (f"{plural(checks['curves'], 'curve')}, {plural(len(checks['kernels']), 'kernel')} rechecked, "
+                f"{plural(sum(checks['witnesses'].values()), 'witness', 'witnesses')}")
     return ", ".join(f"{value} {key}" for key, value in checks.items())
 
 
 def report(result: dict) -> str:
     """The readable report of one verification result (see ``certify.verifier.cli.check``): the equation
-    of E, the claim, the checks with their counts, the theorems assumed, digests and time."""
+    of E, the claim, the checks in words, the keys of the theorems assumed (their statements are printed
+    once, at the end of the run), digests and time."""
     rows = []
+    if result.get("label"):
+        rows.append(("label", [result["label"]]))
     if result.get("curve"):
         rows.append(("curve", [f"E: {equation(result['curve'])}"]))
     if result["accepted"]:
         rows.append(("proves", result["claim lines"]))
-        rows.append(("checks run", textwrap.wrap(counts(result["checks"]), WIDTH - 16)))
-        rows.append(("assuming", assumptions(result["relies_on"])))
+        rows.append(("checks run", [line for sentence in check_sentences(result["checks"])
+                                    for line in textwrap.wrap(sentence, WIDTH - 16)]))
+        rows.append(("assuming", textwrap.wrap(", ".join(result["relies_on"]), WIDTH - 16)))
     else:
         rows.append(("failed", textwrap.wrap(result["reason"], WIDTH - 16)))
     if result.get("digest"):
@@ -158,3 +206,38 @@ def one_line(result: dict) -> str:
         return f"rejected: {result['file']} — {result['reason']}"
     return (f"accepted: {result['file']} — {result['reason']} [{counts(result['checks'])}; "
             f"{result['seconds']:.3f} s] {result['digest']}")
+
+
+def bundle_summary(bundle: dict, results: list) -> list:
+    """The table that opens a bundle's report: one row per member (label, curve, claim, verdict, short
+    digest), under a heading with the bundle's digests."""
+    rows = [("label", "curve", "claim", "verdict", "digest")]
+    for result in results:
+        curve = equation(result["curve"]) if result.get("curve") else "—"
+        claim = result["reason"] if result["accepted"] else "—"
+        rows.append((result.get("label") or "—", cut(curve, 38), cut(claim, 60),
+                     "accepted" if result["accepted"] else "rejected",
+                     result["digest"].split(":", 1)[1][:12] if result.get("digest") else "—"))
+    widths = [max(len(row[k]) for row in rows) for k in range(5)]
+    accepted = sum(result["accepted"] for result in results)
+    lines = [f"bundle: {bundle['file']} — {plural(len(results), 'certificate')}, {accepted} accepted",
+             f"  bundle digest {bundle['digest']} (of its manifest, whatever the file's layout)",
+             f"  file SHA-256  {bundle['file digest']} (what sha256sum prints for the file)"]
+    lines += ["  " + "  ".join(cell.ljust(width) for cell, width in zip(row, widths)).rstrip() for row in rows]
+    return lines
+
+
+def cut(text: str, width: int) -> str:
+    return text if len(text) <= width else text[:width - 1] + "…"
+
+
+def closing_line(tally: dict, bundles: list, version: str, source: str, seconds: float) -> str:
+    """The run's last line: certificates accepted of those checked, bundle digests, the verifier's
+    version and source digest, and the time."""
+    total = sum(tally.values())
+    parts = [f"{tally['accepted']} of {plural(total, 'certificate')} accepted"
+             + (f" ({tally['rejected']} rejected, {tally['unreadable']} unreadable)"
+                if tally["rejected"] or tally["unreadable"] else "")]
+    parts += [f"bundle {bundle['digest']}" for bundle in bundles]
+    parts += [f"verifier {version}, source {source}", f"{seconds:.2f} s"]
+    return "; ".join(parts)

@@ -2,25 +2,30 @@
 
 A path names a *source*. A ``.sqlite`` file is a store written by ``certify batch`` (table
 ``certificates``, one row per certificate, with the digest recorded when it was written); a
-directory stands for the ``*.json`` files in it, in name order; any other path is one JSON file,
-either a certificate or a bundle (format ``certify-bundle``: a manifest listing each member's
-name, format, digest and claim, and the members). A recorded digest (in a manifest or a store) must
-equal the digest of the certificate it names, or that certificate is rejected.
+directory stands for the ``*.json`` files in it, in name order; a ``.pyz`` file is a referee's kit
+(``certify.verifier.kit``), read for the bundle it carries; ``-`` is standard input; any other path is
+one JSON file, either a certificate or a bundle (format ``certify-bundle``: a manifest listing each
+member's name, label, format, digest and claim, and the members). A recorded digest (in a manifest or a
+store) must equal the digest of the certificate it names, or that certificate is rejected.
 """
+import hashlib
 import json
 import os
 import sqlite3
+import sys
 
 from certify.verifier.certificate import check_shape
-from certify.verifier.digest import BUNDLE_FORMAT, digest
+from certify.verifier.digest import BUNDLE_FORMAT, NotCanonical, digest
 from certify.verifier.errors import Rejection, show
+from certify.verifier.kit import KIT_SUFFIX, KitError, read_kit
 from certify.verifier.limits import (MAX_DEPTH, MAX_DIGITS, MAX_FILE_BYTES, MAX_NAME_BYTES, MAX_STORE_MEMORY,
                                      MAX_STORE_STEPS, MAX_VALUES)
 
 BUNDLE_VERSION = "1"
 
-MANIFEST_FIELDS = ("name", "format", "digest", "claim")
-"""What a bundle's manifest records for each member, in order."""
+MANIFEST_FIELDS = ("name", "label", "format", "digest", "claim")
+"""What a bundle's manifest records for each member, in order (the label, from the author's list of
+curves, may be empty)."""
 
 STORE_SUFFIX = ".sqlite"
 STORE_TABLE = "certificates"
@@ -34,9 +39,18 @@ class Unreadable(Exception):
 
 
 def tasks(path: str):
-    """The units of work for one source: ('file', path) or ('text', name, JSON bytes, {"digest": recorded})."""
-    if path.endswith(STORE_SUFFIX) and os.path.isfile(path):
+    """The units of work for one source: ('file', path), ('data', name, bytes) for standard input ('-')
+    and the bundle inside a kit, or ('row', name, bytes or Unreadable, {"digest": recorded}) per store row."""
+    if path == "-":
+        yield ("data", "<stdin>", sys.stdin.buffer.read(MAX_FILE_BYTES + 1))
+    elif path.endswith(STORE_SUFFIX) and os.path.isfile(path):
         yield from store_rows(path)
+    elif path.endswith(KIT_SUFFIX) and os.path.isfile(path):
+        try:
+            bundle, data, _ = read_kit(path)
+        except KitError as error:
+            raise Unreadable(f"{path}: {error}")
+        yield ("data", f"{path}#{bundle}", data)
     elif os.path.isdir(path):
         names = sorted(name for name in os.listdir(path) if name.endswith(".json") and not name.startswith("."))
         if not names:
@@ -57,7 +71,7 @@ reaches Python as at most MAX_NAME_BYTES (names and digest) or MAX_FILE_BYTES (t
 
 
 def store_rows(path: str):
-    """('text', 'STORE#curve/kind', document bytes or Unreadable, {"digest": recorded digest}) for every row
+    """('row', 'STORE#curve/kind', document bytes or Unreadable, {"digest": recorded digest}) for every row
     of a store, in key order. The store is opened read-only; ``certificates`` must be a table (a view
     could compute without end), SQLite's own work is cut off after MAX_STORE_STEPS virtual-machine steps
     per row and its memory at MAX_STORE_MEMORY bytes, and a row with a document that is not text of at most
@@ -89,7 +103,7 @@ def store_rows(path: str):
             if document is None:
                 document = Unreadable(f"the store holds no JSON text for this row (a {_text(type_name)} value, "
                                       f"or more than {MAX_FILE_BYTES} bytes)")
-            yield ("text", name, document, {"digest": _text(recorded) if recorded is not None else None})
+            yield ("row", name, document, {"digest": _text(recorded) if recorded is not None else None})
     except sqlite3.Error as error:
         raise Unreadable(f"{path}: not a certify store ({error})")
     finally:
@@ -101,23 +115,33 @@ def _text(value) -> str:
     return value.decode("utf-8", errors="replace") if isinstance(value, bytes) else str(value)
 
 
-def documents(task) -> list:
-    """[(name, parsed certificate or Unreadable, {field: value recorded beside it})] for one task; a
-    bundle gives one entry per member."""
-    if task[0] == "text":
+def documents(task) -> tuple:
+    """(entries, bundle) for one task: entries [(name, parsed certificate or Unreadable, {field: value
+    recorded beside it}, label)], one per member for a bundle; bundle None, or for a bundle
+    {"file", "digest", "file digest", "members"} (its canonical digest, the SHA-256 of its bytes)."""
+    if task[0] == "row":
         _, name, data, recorded = task
         try:
-            return [(name, data if isinstance(data, Unreadable) else parse(data), recorded)]
+            return [(name, data if isinstance(data, Unreadable) else parse(data), recorded, None)], None
         except Unreadable as error:
-            return [(name, error, recorded)]
-    path = task[1]
+            return [(name, error, recorded, None)], None
+    name = task[1]
     try:
-        document = parse(read(path))
+        data = task[2] if task[0] == "data" else read(name)
+        document = parse(data)
     except Unreadable as error:
-        return [(path, error, {})]
+        return [(name, error, {}, None)], None
     if isinstance(document, dict) and document.get("format") == BUNDLE_FORMAT:
-        return bundle_members(path, document)
-    return [(path, document, {})]
+        entries = bundle_members(name, document)
+        if isinstance(entries[0][1], Unreadable) and len(entries) == 1 and entries[0][0] == name:
+            return entries, None
+        try:
+            bundle_digest = digest(document)
+        except NotCanonical as error:
+            return [(name, Unreadable(f"the bundle has no digest: {error}"), {}, None)], None
+        return entries, {"file": name, "digest": bundle_digest, "members": len(entries),
+                         "file digest": "sha256:" + hashlib.sha256(data).hexdigest()}
+    return [(name, document, {}, None)], None
 
 
 def read(path: str) -> bytes:
@@ -192,21 +216,21 @@ def bundle_members(path: str, bundle: dict) -> list:
     that does not describe the members one to one makes the whole bundle unreadable."""
     manifest, members = bundle.get("manifest"), bundle.get("members")
     if bundle.get("version") != BUNDLE_VERSION:
-        return [(path, Unreadable(f"unknown bundle version {bundle.get('version')!r}"), {})]
+        return [(path, Unreadable(f"unknown bundle version {show(bundle.get('version'))}"), {}, None)]
     listed = manifest.get("members") if isinstance(manifest, dict) else None
     if not isinstance(listed, list) or not isinstance(members, list):
-        return [(path, Unreadable("a bundle needs a manifest with a member list, and the members"), {})]
+        return [(path, Unreadable("a bundle needs a manifest with a member list, and the members"), {}, None)]
     if manifest.get("count") != str(len(members)) or len(listed) != len(members):
-        error = Unreadable(f"the manifest counts {manifest.get('count')!r} members and lists {len(listed)}, "
+        error = Unreadable(f"the manifest counts {show(manifest.get('count'))} members and lists {len(listed)}, "
                            f"the bundle holds {len(members)}")
-        return [(path, error, {})]
+        return [(path, error, {}, None)]
     out = []
     for entry, member in zip(listed, members):
         entry = entry if isinstance(entry, dict) else {}
-        recorded = {key: entry.get(key) for key in MANIFEST_FIELDS if key != "name"}
-        name = entry.get("name")
-        out.append((f"{path}#{name[:MAX_NAME_BYTES] if isinstance(name, str) else show(name)[:MAX_NAME_BYTES]}",
-                    member, recorded))
+        recorded = {key: entry.get(key) for key in MANIFEST_FIELDS if key not in ("name", "label")}
+        name, label = (value if isinstance(value, str) else show(value) for value in (entry.get("name"),
+                                                                                        entry.get("label", "")))
+        out.append((f"{path}#{name[:MAX_NAME_BYTES]}", member, recorded, label[:MAX_NAME_BYTES] or None))
     return out
 
 

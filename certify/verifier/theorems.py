@@ -58,9 +58,10 @@ THEOREMS = {
         "For l in {11, 17, 19, 37, 43, 67, 163} a curve over Q has a rational l-isogeny exactly when j is in "
         "the list for l, and then exactly one: two would compose to a cyclic l^2-isogeny, and none exists "
         "over Q for these l.",
-        "B. Mazur, Rational isogenies of prime degree, Invent. Math. 44 (1978), 129-162, with the rational "
-        "points of X_0(l) for these l (the j-values as recalled in the project's notes, each checked to carry "
-        "its isogeny); M. A. Kenku, On the number of Q-isomorphism classes of elliptic curves in each "
+        "B. Mazur, Rational isogenies of prime degree, Invent. Math. 44 (1978), 129-162, and the rational "
+        "points of X_0(l) for these l as tabulated, with their j-invariants, in A. Lozano-Robledo, On the field "
+        "of definition of p-torsion points on elliptic curves over the rationals, Math. Ann. 357 (2013), "
+        "279-305, Table 4; M. A. Kenku, On the number of Q-isomorphism classes of elliptic curves in each "
         "Q-isogeny class, J. Number Theory 15 (1982), 199-202, for the cyclic degrees over Q"),
     "reduced-minimal-models": (
         "Every curve over Q has a unique reduced minimal model (a1, a3 in {0, 1}, a2 in {-1, 0, 1}); an "

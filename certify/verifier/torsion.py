@@ -49,8 +49,8 @@ def check_torsion_certificate(cert: dict) -> dict:
             raise Rejection("ell part", "the point counts allow more ℓ-torsion and no division-polynomial "
                             "evidence is given for ℓ", ell=ell, bound=bound, order=len(group))
         polynomials += check_ell_part(a, change, model, ell, group, ell_parts[ell], lifting)
-    return {"points checked": len(generators), "group elements": len(group),
-            "primes recounted": len(primes), "polynomials solved": polynomials}
+    return {"generators": len(generators), "group elements": len(group), "primes": primes,
+            "polynomials solved": polynomials}
 
 
 def read_primes(entries: list) -> dict:

@@ -1,0 +1,130 @@
+"""The referee's kit: one zip archive (``NAME.pyz``) that a bare ``python3 -S NAME.pyz`` runs, holding the
+verifier's own source, a launcher, and one bundle of certificates.
+
+A genuine kit holds exactly these members, and nothing else: ``__main__.py`` (KIT_MAIN, five lines),
+``certify/__init__.py`` (PACKAGE_STUB, a docstring), ``certify/verifier/*.py`` (this package) and the
+bundle ``NAME.json``. The *verifier source digest* is the SHA-256 of the text that ``sha256sum`` prints
+for all members but the bundle, sorted by path in byte order (``LC_ALL=C``), so a referee can recompute
+it from the extracted files with standard tools and compare it with the digest published for the release.
+"""
+import hashlib
+import os
+import sys
+import zipfile
+
+from certify.verifier.limits import MAX_FILE_BYTES
+
+KIT_SUFFIX = ".pyz"
+
+KIT_MAIN = ('"""A certify kit: python3 -S THIS_FILE [--quiet | --jsonl] [--expect DIGEST] [--extract DIR]."""\n'
+            "import sys\n\n"
+            "from certify.verifier.kit import run_kit\n\n"
+            "sys.exit(run_kit(sys.argv[1:]))\n")
+"""The kit's ``__main__.py``."""
+
+PACKAGE_STUB = '"""The package that holds the verifier inside a kit."""\n'
+"""The kit's ``certify/__init__.py``: the verifier's modules are ``certify.verifier.*`` wherever they run."""
+
+MAX_KIT_MEMBERS = 100
+"""Most members a kit may hold (a genuine one holds about 20)."""
+
+
+def package_files() -> dict:
+    """{kit path: bytes} of the verifier this code belongs to: its own modules (read through its loader,
+    so from the file system or from inside a kit alike) and the two launcher files."""
+    archive = getattr(__loader__, "archive", None)  # set when the modules are imported from a zip archive
+    if archive:
+        with zipfile.ZipFile(archive) as kit:
+            files = {name: kit.read(name) for name in kit.namelist()
+                     if name.startswith("certify/verifier/") and name.endswith(".py") and name.count("/") == 2}
+    else:
+        here = os.path.dirname(os.path.abspath(__file__))
+        files = {}
+        for name in os.listdir(here):
+            if name.endswith(".py"):
+                with open(os.path.join(here, name), "rb") as handle:
+                    files["certify/verifier/" + name] = handle.read()
+    files["__main__.py"] = KIT_MAIN.encode("utf-8")
+    files["certify/__init__.py"] = PACKAGE_STUB.encode("utf-8")
+    return files
+
+
+def source_digest(files: dict) -> str:
+    """'sha256:' and the SHA-256 of the ``sha256sum`` listing (hash, two spaces, path, newline) of the files,
+    sorted by path in byte order."""
+    listing = "".join(f"{hashlib.sha256(files[name]).hexdigest()}  {name}\n"
+                      for name in sorted(files, key=lambda n: n.encode("utf-8")))
+    return "sha256:" + hashlib.sha256(listing.encode("utf-8")).hexdigest()
+
+
+class KitError(Exception):
+    """The file is not a kit this verifier reads."""
+
+
+def read_kit(path: str) -> tuple:
+    """(bundle name, bundle bytes, {path: bytes} of the other members) of a kit. Refused: a file over
+    MAX_FILE_BYTES, a damaged archive, more than MAX_KIT_MEMBERS members, a name given twice (zip readers
+    differ on which copy they take), a name that is not a plain relative path, a member other than those
+    of a genuine kit, and not exactly one bundle."""
+    try:
+        if os.path.getsize(path) > MAX_FILE_BYTES:
+            raise KitError(f"the kit is larger than {MAX_FILE_BYTES} bytes")
+        with zipfile.ZipFile(path) as archive:
+            infos = archive.infolist()
+            if len(infos) > MAX_KIT_MEMBERS:
+                raise KitError(f"the kit has more than {MAX_KIT_MEMBERS} members")
+            names = [info.filename for info in infos]
+            if len(set(names)) != len(names):
+                raise KitError("the kit names a member twice")
+            if sum(info.file_size for info in infos) > MAX_FILE_BYTES:
+                raise KitError(f"the kit's members come to more than {MAX_FILE_BYTES} bytes")
+            for name in names:
+                check_member_name(name)
+            bundles = [n for n in names if "/" not in n and n.endswith(".json")]
+            if len(bundles) != 1:
+                raise KitError("a kit holds exactly one bundle, NAME.json, at its top level")
+            data = {name: archive.read(name) for name in names}
+    except (OSError, zipfile.BadZipFile, zipfile.LargeZipFile, RuntimeError, ValueError, EOFError) as error:
+        raise KitError(f"not a readable zip archive ({str(error)[:120]})")
+    bundle = bundles[0]
+    return bundle, data.pop(bundle), data
+
+
+def check_member_name(name: str) -> None:
+    """A member of a genuine kit: __main__.py, certify/__init__.py, a module certify/verifier/NAME.py, or a
+    top-level NAME.json; NAME made of letters, digits, '-', '_' and '.' only."""
+    plain = all(c.isascii() and (c.isalnum() or c in "-_.") for c in name.replace("/", "")) and ".." not in name
+    allowed = (name in ("__main__.py", "certify/__init__.py")
+               or (name.startswith("certify/verifier/") and name.endswith(".py") and name.count("/") == 2)
+               or ("/" not in name and name.endswith(".json")))
+    if not (plain and allowed):
+        raise KitError(f"the kit holds a member a genuine kit does not: {name[:80]!r}")
+
+
+def extract(path: str, directory: str) -> list:
+    """Write the kit's members under ``directory`` (created), refusing any that exists; returns the paths."""
+    bundle, data, others = read_kit(path)
+    written = []
+    for name, content in sorted(dict(others, **{bundle: data}).items()):
+        target = os.path.join(directory, *name.split("/"))
+        os.makedirs(os.path.dirname(target), exist_ok=True)
+        with open(target, "xb") as handle:
+            handle.write(content)
+        written.append(target)
+    return written
+
+
+def run_kit(argv: list) -> int:
+    """The kit's command line: the verifier's own, on the bundle the kit carries, or --extract DIR."""
+    from certify.verifier.cli import main
+
+    archive = __loader__.archive
+    if argv[:1] == ["--extract"] and len(argv) == 2:
+        try:
+            written = extract(archive, argv[1])
+        except (KitError, OSError) as error:
+            print(f"kit: cannot extract: {error}", file=sys.stderr)
+            return 2
+        print(f"{len(written)} files written under {argv[1]}:\n" + "\n".join(written))
+        return 0
+    return main(argv + [archive], program="python3 -S " + os.path.basename(archive))
