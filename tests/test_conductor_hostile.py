@@ -248,15 +248,34 @@ def test_a_pocklington_number_over_the_digit_limit_is_refused_at_once():
     assert rejected_by(cert) == "primality limit"
 
 
-def test_pocklington_work_over_the_budget_is_refused_before_any_exponentiation():
-    """Certificates whose exponentiations would take minutes: refused by the budget, not run."""
-    n = 10 ** (MAX_POCKLINGTON_DIGITS - 1) + 1
-    per_certificate = 40
-    count = MAX_PRIMALITY_WORK // (per_certificate * (MAX_POCKLINGTON_DIGITS // 100) ** 3) + 1
+def expensive_certificates(count: int) -> list:
+    """``count`` Pocklington-shaped certificates of 1000-digit numbers n with n − 1 divisible by each of the
+    40 listed primes and the factored part F of n − 1 larger than √n: everything short of the modular
+    exponentiations passes, so only the budget stands between them and 40 exponentiations each."""
+    small = [int(q) for q in pari.primes(40)]
+    smooth = 2 ** 1700
+    for q in small[1:]:
+        smooth *= q
+    numbers = [smooth * k + 1 for k in range(10 ** 400, 10 ** 400 + 4 * count, 2)][:count]
+    return [{"prime": str(n), "factors": [{"factor": str(q), "base": "3"} for q in small]} for n in numbers]
+
+
+def test_pocklington_work_over_the_budget_is_refused_before_any_exponentiation(monkeypatch):
+    """Certificates whose exponentiations would take seconds each: refused by the budget before the first
+    exponentiation (pow is replaced by a function that fails the test if it is called)."""
+    from certify.verifier import primality
+
+    def no_exponentiation(*args):
+        raise AssertionError("an exponentiation ran before the budget was checked")
+
+    cost = 40 * primality.exponentiation_cost(int(expensive_certificates(1)[0]["prime"]))
     cert = fresh(0)
-    cert["evidence"]["pocklington"] = [{"prime": str(n + 2 * i), "factors": [
-        {"factor": str(q), "base": "3"} for q in range(2, 2 + per_certificate)]} for i in range(count)]
+    cert["evidence"]["pocklington"] = expensive_certificates(MAX_PRIMALITY_WORK // cost + 1)
+    monkeypatch.setattr(primality, "pow", no_exponentiation, raising=False)
     assert rejected_by(cert) == "primality limit"
+    cert["evidence"]["pocklington"] = expensive_certificates(1)   # within the budget: the exponentiations run
+    with pytest.raises(AssertionError, match="an exponentiation ran"):
+        verify(cert)
 
 
 def test_a_genuine_pocklington_certificate_of_a_large_prime_is_accepted():
