@@ -185,13 +185,12 @@ class Verdict:
 
 def verify(certificate: Union[Certificate, dict, Path]) -> Verdict:
     """Recheck one certificate — an object, its JSON document, or a file holding one — exactly as
-    ``certify verify`` does (JSON Schema first, then the standalone verifier)."""
+    ``certify verify`` does (the verifier's JSON-Schema step first, then its checks)."""
     if isinstance(certificate, (Certificate, dict)):
-        from certify.structure import schema_violations
         from certify.verifier.cli import check
 
         document = certificate.document if isinstance(certificate, Certificate) else certificate
-        return _verdict(check("certificate", document, {}, precheck=schema_violations))
+        return _verdict(check("certificate", document, {}))
     verdicts = verify_all(certificate)
     if len(verdicts) != 1:
         raise CertifyError(f"{os.fspath(certificate)} holds {len(verdicts)} certificates; use verify_all")
@@ -200,10 +199,9 @@ def verify(certificate: Union[Certificate, dict, Path]) -> Verdict:
 
 def verify_all(source: Path) -> list[Verdict]:
     """The verdict on every certificate of a source: a file, a bundle, a directory or a .sqlite store."""
-    from certify.structure import schema_violations
     from certify.verifier.cli import verdicts
 
-    return [_verdict(result) for result in verdicts([os.fspath(source)], 1, schema_violations)]
+    return [_verdict(result) for result in verdicts([os.fspath(source)], 1)]
 
 
 def _verdict(result: dict) -> Verdict:

@@ -169,10 +169,9 @@ def parser() -> argparse.ArgumentParser:
 def main(argv=None) -> int:
     argv = sys.argv[1:] if argv is None else list(argv)
     if argv[:1] == ["verify"]:
-        from certify.structure import schema_violations
         from certify.verifier.cli import main as verify_main
 
-        return verify_main(argv[1:], precheck=schema_violations)
+        return verify_main(argv[1:])
     args = parser().parse_args(argv)
     if getattr(args, "workers", None) is not None and args.workers < 1 or getattr(args, "timeout", None) is not None \
             and args.timeout <= 0:

@@ -1,6 +1,6 @@
-"""The front end's structural check: certificates against the JSON Schemas in ``schemas/`` (draft
-2020-12, with jsonschema). ``certify verify`` runs it before the standard-library verifier, which
-repeats its own structural checks so that it stays safe without jsonschema."""
+"""The reference structural check for the tests: certificates against the JSON Schemas in ``schemas/``
+(draft 2020-12) with the reference library jsonschema, to which the verifier's own standard-library
+schema step (``certify.verifier.schema``) must agree."""
 from __future__ import annotations
 
 import functools
@@ -10,17 +10,13 @@ from importlib import resources
 
 import jsonschema
 
-SCHEMA_FILES = {
-    "certify-torsion": "torsion.schema.json",
-    "certify-isogeny-class": "isogeny-class.schema.json",
-    "certify-conductor": "conductor.schema.json",
-}
+from certify.verifier.schema import SCHEMA_FILES
 
 
 @functools.cache
 def validator(format_name: str) -> jsonschema.Draft202012Validator:
     """The validator for one certificate format."""
-    text = resources.files("certify").joinpath("schemas", SCHEMA_FILES[format_name]).read_text(encoding="utf-8")
+    text = resources.files("certify.verifier").joinpath("schemas", SCHEMA_FILES[format_name]).read_text(encoding="utf-8")
     return jsonschema.Draft202012Validator(json.loads(text))
 
 

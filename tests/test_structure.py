@@ -6,7 +6,7 @@ import pytest
 from certify.certificates import stamp
 from certify.curves import parse_curve
 from certify.isogeny.certificate import certify_isogeny_class
-from certify.structure import schema_violations
+from schema_reference import schema_violations
 from certify.torsion import certify_torsion
 
 CURVES = ["[1,0,1,-19,26]", "[0,-1,1,-10,-20]", "y^2 + x*y - 3/16*y = x^3 - 3/16*x^2", "[1,0,1,-171,-874]"]

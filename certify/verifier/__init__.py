@@ -5,6 +5,7 @@ that failed and the values involved. Nothing here imports the rest of certify.
 """
 from certify.verifier.errors import Rejection
 from certify.verifier.certificate import check_shape, field
+from certify.verifier.schema import schema_violations
 
 VERSION = "0.1.0"
 """The verifier's version; certify's own version is the same (tests/test_kit.py checks it)."""
@@ -32,6 +33,9 @@ def verify(cert) -> dict:
     versions, check = known[name]
     if version not in versions:
         raise Rejection("format", "unknown version of the format", format=name, version=version, known=list(versions))
+    violations = schema_violations(cert)
+    if violations:
+        raise Rejection("schema", "; ".join(violations))
     return {"format": name, "checks": check(cert)}
 
 

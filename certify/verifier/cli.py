@@ -179,15 +179,16 @@ def main(argv=None, precheck=None, program="certify verify") -> int:
                 bundles.append(bundle)
                 seen.update((bundle["digest"], bundle["file digest"]))
             print_results(results, bundle, args)
+        missing = [d for d in args.expect if d not in seen]
+        if not args.jsonl:
+            if not args.quiet and keys:
+                print("theorems assumed (each once, in the verifier's own wording):")
+                print("\n".join("  " + line for line in assumptions(keys)) + "\n")
+            print(closing_line(tally, bundles, VERSION, source_digest(package_files()), time.perf_counter() - started),
+                  flush=True)
     except BrokenPipeError:  # the reader (| head) has gone: stop quietly, without a verdict on the rest
         os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
         return 2
-    missing = [d for d in args.expect if d not in seen]
-    if not args.jsonl:
-        if not args.quiet and keys:
-            print("theorems assumed (each once, in the verifier's own wording):")
-            print("\n".join("  " + line for line in assumptions(keys)) + "\n")
-        print(closing_line(tally, bundles, VERSION, source_digest(package_files()), time.perf_counter() - started))
     for expected in missing:
         print(f"expect: {expected} is not the digest of any bundle, bundle file or certificate checked",
               file=sys.stderr)

@@ -2,8 +2,8 @@
 verifier's own source, a launcher, and one bundle of certificates.
 
 A genuine kit holds exactly these members, and nothing else: ``__main__.py`` (KIT_MAIN, five lines),
-``certify/__init__.py`` (PACKAGE_STUB, a docstring), ``certify/verifier/*.py`` (this package) and the
-bundle ``NAME.json``. The *verifier source digest* is the SHA-256 of the text that ``sha256sum`` prints
+``certify/__init__.py`` (PACKAGE_STUB, a docstring), ``certify/verifier/*.py`` and
+``certify/verifier/schemas/*.json`` (this package) and the bundle ``NAME.json``. The *verifier source digest* is the SHA-256 of the text that ``sha256sum`` prints
 for all members but the bundle, sorted by path in byte order (``LC_ALL=C``), so a referee can recompute
 it from the extracted files with standard tools and compare it with the digest published for the release.
 """
@@ -35,18 +35,26 @@ def package_files() -> dict:
     archive = getattr(__loader__, "archive", None)  # set when the modules are imported from a zip archive
     if archive:
         with zipfile.ZipFile(archive) as kit:
-            files = {name: kit.read(name) for name in kit.namelist()
-                     if name.startswith("certify/verifier/") and name.endswith(".py") and name.count("/") == 2}
+            files = {name: kit.read(name) for name in kit.namelist() if is_verifier_source(name)}
     else:
         here = os.path.dirname(os.path.abspath(__file__))
         files = {}
-        for name in os.listdir(here):
-            if name.endswith(".py"):
-                with open(os.path.join(here, name), "rb") as handle:
-                    files["certify/verifier/" + name] = handle.read()
+        for folder, suffix in (("", ".py"), ("schemas", ".json")):
+            for name in os.listdir(os.path.join(here, folder)):
+                if name.endswith(suffix):
+                    with open(os.path.join(here, folder, name), "rb") as handle:
+                        files["/".join(filter(None, ("certify/verifier", folder, name)))] = handle.read()
     files["__main__.py"] = KIT_MAIN.encode("utf-8")
     files["certify/__init__.py"] = PACKAGE_STUB.encode("utf-8")
     return files
+
+
+def is_verifier_source(name: str) -> bool:
+    """A module certify/verifier/NAME.py or a schema certify/verifier/schemas/NAME.json."""
+    parts = name.split("/")
+    return (parts[:2] == ["certify", "verifier"]
+            and ((len(parts) == 3 and name.endswith(".py")) or (len(parts) == 4 and parts[2] == "schemas"
+                                                                and name.endswith(".json"))))
 
 
 def source_digest(files: dict) -> str:
@@ -91,11 +99,10 @@ def read_kit(path: str) -> tuple:
 
 
 def check_member_name(name: str) -> None:
-    """A member of a genuine kit: __main__.py, certify/__init__.py, a module certify/verifier/NAME.py, or a
-    top-level NAME.json; NAME made of letters, digits, '-', '_' and '.' only."""
+    """A member of a genuine kit: __main__.py, certify/__init__.py, the verifier's source (modules and
+    schemas) or a top-level NAME.json; names made of letters, digits, '-', '_' and '.' only."""
     plain = all(c.isascii() and (c.isalnum() or c in "-_.") for c in name.replace("/", "")) and ".." not in name
-    allowed = (name in ("__main__.py", "certify/__init__.py")
-               or (name.startswith("certify/verifier/") and name.endswith(".py") and name.count("/") == 2)
+    allowed = (name in ("__main__.py", "certify/__init__.py") or is_verifier_source(name)
                or ("/" not in name and name.endswith(".json")))
     if not (plain and allowed):
         raise KitError(f"the kit holds a member a genuine kit does not: {name[:80]!r}")
@@ -119,6 +126,7 @@ def run_kit(argv: list) -> int:
     from certify.verifier.cli import main
 
     archive = __loader__.archive
+    shown = sys.argv[0] if os.path.isfile(sys.argv[0]) and os.path.samefile(sys.argv[0], archive) else archive
     if argv[:1] == ["--extract"] and len(argv) == 2:
         try:
             written = extract(archive, argv[1])
@@ -127,4 +135,4 @@ def run_kit(argv: list) -> int:
             return 2
         print(f"{len(written)} files written under {argv[1]}:\n" + "\n".join(written))
         return 0
-    return main(argv + [archive], program="python3 -S " + os.path.basename(archive))
+    return main(argv + [shown], program="python3 -S " + os.path.basename(archive))

@@ -1,0 +1,116 @@
+"""The structural check of a certificate against its JSON Schema, with the standard library only, so that
+the bare verifier and ``certify verify`` refuse the same documents.
+
+The schemas (``certify/verifier/schemas/``, JSON Schema draft 2020-12; ``schemas/`` at the top of the
+repository is the same folder) use only these keywords, and this module implements exactly them: type,
+properties, required, additionalProperties, items, minItems, maxItems, minLength, pattern (searched, as
+the draft prescribes, with Python's re), const, enum, and $ref to "#/$defs/NAME"; the annotations
+$schema, $id, title and description are skipped. Any other keyword makes the schema unusable here, which
+the tests check, along with agreement with the reference library jsonschema on every hostile-test document.
+"""
+import json
+import os
+import re
+
+SCHEMA_FILES = {
+    "certify-torsion": "torsion.schema.json",
+    "certify-isogeny-class": "isogeny-class.schema.json",
+    "certify-conductor": "conductor.schema.json",
+}
+
+ANNOTATIONS = {"$schema", "$id", "title", "description", "$defs"}
+KEYWORDS = {"type", "properties", "required", "additionalProperties", "items", "minItems", "maxItems",
+            "minLength", "pattern", "const", "enum", "$ref"}
+
+JSON_TYPES = {"object": dict, "array": list, "string": str, "boolean": bool, "null": type(None)}
+
+_SCHEMAS = {}
+
+
+def schema(format_name: str) -> dict:
+    """The parsed schema of a certificate format, read once through this package's loader (from the file
+    system or from inside a kit)."""
+    if format_name not in _SCHEMAS:
+        if hasattr(__loader__, "archive"):  # inside a kit: the member's name in the archive
+            path = "certify/verifier/schemas/" + SCHEMA_FILES[format_name]
+        else:
+            path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "schemas", SCHEMA_FILES[format_name])
+        _SCHEMAS[format_name] = json.loads(__loader__.get_data(path).decode("utf-8"))
+    return _SCHEMAS[format_name]
+
+
+def schema_violations(document, most: int = 3) -> list:
+    """The first ``most`` violations of the document's schema, each as 'path: message', in document order;
+    a document of no known format gets none (the verifier rejects it by name)."""
+    if not (isinstance(document, dict) and isinstance(document.get("format"), str)
+            and document["format"] in SCHEMA_FILES):
+        return []
+    root = schema(document["format"])
+    found = []
+    stack = [(document, root, "")]
+    while stack and len(found) < most:
+        value, node, path = stack.pop()
+        for violation, children in check_node(value, node, path, root):
+            if violation:
+                found.append(violation)
+            stack.extend(reversed(children))
+    return found[:most]
+
+
+def check_node(value, node: dict, path: str, root: dict) -> list:
+    """[(violation or None, [(child value, child schema, child path)])] for one value against one schema."""
+    while "$ref" in node:
+        ref = node["$ref"]
+        node = dict((key, v) for key, v in node.items() if key != "$ref")
+        node.update(root["$defs"][ref.rsplit("/", 1)[1]] if ref.startswith("#/$defs/") else {"unknown": ref})
+    unknown = set(node) - KEYWORDS - ANNOTATIONS
+    if unknown:
+        return [(f"{path or '/'}: the schema uses a keyword this verifier does not implement: {sorted(unknown)}", [])]
+    where = path or "/"
+    if "type" in node and not has_type(value, node["type"]):
+        return [(f"{where}: {short(value)} is not of type {node['type']!r}", [])]
+    out = []
+    if "const" in node and value != node["const"]:
+        out.append((f"{where}: {node['const']!r} was expected", []))
+    if "enum" in node and value not in node["enum"]:
+        out.append((f"{where}: {short(value)} is not one of {node['enum']!r}", []))
+    if isinstance(value, str):
+        if len(value) < node.get("minLength", 0):
+            out.append((f"{where}: {short(value)} is too short", []))
+        if "pattern" in node and not re.search(node["pattern"], value):
+            out.append((f"{where}: {short(value)} does not match {node['pattern']!r}", []))
+    if isinstance(value, list):
+        if len(value) < node.get("minItems", 0):
+            out.append((f"{where}: {short(value)} should be non-empty" if node["minItems"] == 1
+                        else f"{where}: {short(value)} is too short", []))
+        if "maxItems" in node and len(value) > node["maxItems"]:
+            out.append((f"{where}: {short(value)} is too long", []))
+        if "items" in node:
+            out.append((None, [(item, node["items"], f"{path}/{i}") for i, item in enumerate(value)]))
+    if isinstance(value, dict):
+        missing = [key for key in node.get("required", []) if key not in value]
+        if missing:
+            out.append((f"{where}: {missing[0]!r} is a required property", []))
+        properties = node.get("properties", {})
+        extra = [key for key in value if key not in properties]
+        if extra and node.get("additionalProperties", True) is False:
+            out.append((f"{where}: additional properties are not allowed ({short(extra[0])} was unexpected)", []))
+        children = [(value[key], properties[key], f"{path}/{key}") for key in value if key in properties]
+        if isinstance(node.get("additionalProperties"), dict):
+            children += [(value[key], node["additionalProperties"], f"{path}/{key}") for key in extra]
+        out.append((None, children))
+    return out
+
+
+def has_type(value, name) -> bool:
+    """JSON Schema's types for a parsed JSON value (a boolean is not an integer or a number)."""
+    if isinstance(name, list):
+        return any(has_type(value, n) for n in name)
+    if name in ("integer", "number"):
+        return isinstance(value, int) and not isinstance(value, bool)
+    return isinstance(value, JSON_TYPES[name]) and not (name != "boolean" and isinstance(value, bool))
+
+
+def short(value) -> str:
+    text = repr(value)
+    return text if len(text) <= 60 else text[:59] + "…"
