@@ -5,8 +5,9 @@ The schemas (``certify/verifier/schemas/``, JSON Schema draft 2020-12; ``schemas
 repository is the same folder) use only these keywords, and this module implements exactly them: type,
 properties, required, additionalProperties, items, minItems, maxItems, minLength, pattern (searched, as
 the draft prescribes, with Python's re), const, enum, and $ref to "#/$defs/NAME"; the annotations
-$schema, $id, title and description are skipped. Any other keyword makes the schema unusable here, which
-the tests check, along with agreement with the reference library jsonschema on every hostile-test document.
+$schema, $id, title and description are skipped. Any other keyword makes the schema unusable here (it is
+refused when the schema is first used), which the tests check, along with agreement with the reference
+library jsonschema on every hostile-test document.
 """
 import json
 import os
@@ -39,33 +40,63 @@ def schema(format_name: str) -> dict:
     return _SCHEMAS[format_name]
 
 
+_COMPILED = {}
+
+
+def compiled(format_name: str) -> dict:
+    """The schema with every $ref replaced by the definition it names (the definitions do not refer to
+    themselves), and every keyword checked to be one implemented here; done once per format."""
+    if format_name not in _COMPILED:
+        root = schema(format_name)
+
+        def resolve(node):
+            if isinstance(node, list):
+                return [resolve(item) for item in node]
+            if not isinstance(node, dict):
+                return node
+            if "$ref" in node:
+                ref = node["$ref"]
+                if not ref.startswith("#/$defs/"):
+                    raise ValueError(f"the schema of {format_name} refers outside itself: {ref}")
+                merged = dict(root["$defs"][ref[len("#/$defs/"):]])
+                merged.update((k, v) for k, v in node.items() if k not in ANNOTATIONS and k != "$ref")
+                return resolve(merged)
+            unknown = set(node) - KEYWORDS - ANNOTATIONS
+            if unknown:
+                raise ValueError(f"the schema of {format_name} uses keywords not implemented here: {sorted(unknown)}")
+            out = {}
+            for key, value in node.items():
+                if key in ("properties",):
+                    out[key] = {name: resolve(child) for name, child in value.items()}
+                elif key in ("items", "additionalProperties"):
+                    out[key] = resolve(value)
+                elif key not in ANNOTATIONS:
+                    out[key] = value
+            return out
+        _COMPILED[format_name] = resolve(root)
+    return _COMPILED[format_name]
+
+
 def schema_violations(document, most: int = 3) -> list:
     """The first ``most`` violations of the document's schema, each as 'path: message', in document order;
     a document of no known format gets none (the verifier rejects it by name)."""
     if not (isinstance(document, dict) and isinstance(document.get("format"), str)
             and document["format"] in SCHEMA_FILES):
         return []
-    root = schema(document["format"])
     found = []
-    stack = [(document, root, "")]
+    stack = [(document, compiled(document["format"]), "")]
     while stack and len(found) < most:
         value, node, path = stack.pop()
-        for violation, children in check_node(value, node, path, root):
+        for violation, children in check_node(value, node, path):
             if violation:
                 found.append(violation)
             stack.extend(reversed(children))
     return found[:most]
 
 
-def check_node(value, node: dict, path: str, root: dict) -> list:
-    """[(violation or None, [(child value, child schema, child path)])] for one value against one schema."""
-    while "$ref" in node:
-        ref = node["$ref"]
-        node = dict((key, v) for key, v in node.items() if key != "$ref")
-        node.update(root["$defs"][ref.rsplit("/", 1)[1]] if ref.startswith("#/$defs/") else {"unknown": ref})
-    unknown = set(node) - KEYWORDS - ANNOTATIONS
-    if unknown:
-        return [(f"{path or '/'}: the schema uses a keyword this verifier does not implement: {sorted(unknown)}", [])]
+def check_node(value, node: dict, path: str) -> list:
+    """[(violation or None, [(child value, child schema, child path)])] for one value against one compiled
+    schema node."""
     where = path or "/"
     if "type" in node and not has_type(value, node["type"]):
         return [(f"{where}: {short(value)} is not of type {node['type']!r}", [])]
