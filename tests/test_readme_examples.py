@@ -16,6 +16,9 @@ ROOT = Path(__file__).resolve().parent.parent
 README = ROOT / "README.md"
 MARK = "<!-- example: checked by tests/test_readme_examples.py -->"
 DIGEST_MARK = "<!-- source digest: checked by tests/test_readme_examples.py -->"
+TRUST_MARK = "<!-- trusted files: checked by tests/test_readme_examples.py -->"
+KINDS = {"torsion": "certify-torsion", "isogeny": "certify-isogeny-class", "conductor": "certify-conductor"}
+"""The verifier module of each certificate kind, and its format."""
 BLOCK = re.compile(re.escape(MARK) + r"\n```console\n(.*?)```", re.S)
 VOLATILE = [(re.compile(r"\d+\.\d+ s\b"), "T s"), (re.compile(r"\d+\.\d+ curves/s"), "R curves/s"),
             (re.compile(r"\d+ s left"), "S s left"), (re.compile(r"file SHA-256  sha256:[0-9a-f]{64}"), "file SHA-256")]
@@ -67,6 +70,49 @@ def published_digest() -> str:
     return f"verifier {VERSION}, source digest `{source_digest(package_files())}`"
 
 
+def verifier_imports(module: str) -> set:
+    """The verifier modules ``module`` imports, directly or through others (read from the source)."""
+    import ast
+
+    seen, todo = set(), [module]
+    while todo:
+        name = todo.pop()
+        if name in seen:
+            continue
+        seen.add(name)
+        tree = ast.parse((ROOT / "certify" / "verifier" / f"{name}.py").read_text(encoding="utf-8"))
+        for node in ast.walk(tree):
+            if isinstance(node, ast.ImportFrom) and (node.module or "").startswith("certify.verifier."):
+                todo.append(node.module.split(".")[2])
+    return seen
+
+
+def lines(module: str) -> int:
+    return len((ROOT / "certify" / "verifier" / f"{module}.py").read_text(encoding="utf-8").splitlines())
+
+
+def trusted_table() -> str:
+    """The README's table of what a referee reads to trust one kind of certificate: the modules its checks
+    import, and the modules every kind goes through (reading, the schema step, digests, reports)."""
+    front = (verifier_imports("cli") | verifier_imports("__init__")) - set(KINDS)
+    rows = ["| certificate kind | verifier modules its checks rely on | lines |", "| --- | --- | --- |"]
+    for kind, name in KINDS.items():
+        modules = sorted(verifier_imports(kind))
+        rows.append(f"| `{name}` | " + ", ".join(f"`{m}.py` ({lines(m)})" for m in modules)
+                    + f" | {sum(map(lines, modules))} |")
+    shared = sorted(front - set().union(*(verifier_imports(kind) for kind in KINDS)))
+    rows.append("| every kind: reading, schema step, digests, report | " + ", ".join(f"`{m}.py` ({lines(m)})"
+                                                                                  for m in shared)
+                + f" | {sum(map(lines, shared))} |")
+    return "\n".join(rows) + "\n"
+
+
+def test_the_table_of_trusted_files_is_current():
+    text = README.read_text(encoding="utf-8")
+    assert text.split(TRUST_MARK + "\n", 1)[1].startswith(trusted_table()), \
+        "run `python tests/test_readme_examples.py --write`"
+
+
 def test_readme_examples_are_what_the_commands_print(tmp_path):
     text = README.read_text(encoding="utf-8")
     blocks = run_blocks(text, tmp_path)
@@ -91,6 +137,9 @@ def write() -> None:
             text = text.replace(MARK + "\n```console\n" + shown + "```", MARK + "\n```console\n" + produced + "```", 1)
     head, tail = text.split(DIGEST_MARK + "\n", 1)
     text = head + DIGEST_MARK + "\n" + published_digest() + "\n" + tail.split("\n", 1)[1]
+    head, tail = text.split(TRUST_MARK + "\n", 1)
+    rest = tail.split("\n\n", 1)[1]
+    text = head + TRUST_MARK + "\n" + trusted_table() + "\n" + rest
     README.write_text(text, encoding="utf-8")
 
 
