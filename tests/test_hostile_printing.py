@@ -68,7 +68,16 @@ def spoofed_directory(folder) -> str:
     return path
 
 
+def spoofed_bundle_file_name(folder) -> str:
+    """A directory holding the spoofed bundle under a file name that is itself a spoof."""
+    path = os.path.join(folder, "bundles")
+    os.mkdir(path)
+    os.rename(spoofed_bundle(folder), os.path.join(path, SPOOFS[0].replace("/", "_") + ".json"))
+    return path
+
+
 SOURCES = {"bundle member names": (spoofed_bundle, len(SPOOFS)), "relies_on keys": (spoofed_relies_on, 1),
+           "a bundle's file name": (spoofed_bundle_file_name, len(SPOOFS)),
            "store columns": (spoofed_store, len(SPOOFS)), "file names": (spoofed_directory, len(SPOOFS))}
 
 

@@ -220,7 +220,7 @@ def bundle_summary(bundle: dict, results: list) -> list:
                      result["digest"].split(":", 1)[1][:12] if result.get("digest") else "—"))
     widths = [max(len(row[k]) for row in rows) for k in range(5)]
     accepted = sum(result["accepted"] for result in results)
-    lines = [f"bundle: {bundle['file']} — {plural(len(results), 'certificate')}, {accepted} accepted",
+    lines = [f"bundle: {printable(bundle['file'])} — {plural(len(results), 'certificate')}, {accepted} accepted",
              f"  bundle digest {bundle['digest']} (of its manifest, whatever the file's layout)",
              f"  file SHA-256  {bundle['file digest']} (what sha256sum prints for the file)"]
     lines += ["  " + "  ".join(cell.ljust(width) for cell, width in zip(row, widths)).rstrip() for row in rows]
