@@ -273,7 +273,8 @@ def test_pocklington_work_over_the_budget_is_refused_before_any_exponentiation(m
     cert["evidence"]["pocklington"] = expensive_certificates(MAX_PRIMALITY_WORK // cost + 1)
     monkeypatch.setattr(primality, "pow", no_exponentiation, raising=False)
     assert rejected_by(cert) == "primality limit"
-    cert["evidence"]["pocklington"] = expensive_certificates(1)   # within the budget: the exponentiations run
+    monkeypatch.setattr(primality, "MAX_PRIMALITY_WORK", 2 * cost)   # one certificate within the budget:
+    cert["evidence"]["pocklington"] = expensive_certificates(1)       # its exponentiations run
     with pytest.raises(AssertionError, match="an exponentiation ran"):
         verify(cert)
 

@@ -93,6 +93,31 @@ def made_up_kernel(digits: int) -> list:
     return [str(rnd.randrange(10 ** (digits - 1), 10 ** digits)) for _ in range(81)] + ["1"]
 
 
+def pocklington_attack() -> dict:
+    """A genuine conductor certificate with 500 Pocklington certificates for 195-digit numbers, 90 factors
+    each (the hostile referee's file: priced at one unit a factor by an earlier budget, it ran 60–100 s)."""
+    from certify.conductor import certify_conductor
+    from certify.curves import parse_curve
+
+    cert = certify_conductor(parse_curve("[1,0,1,-19,26]"))
+    rnd = random.Random(195)
+    cert["evidence"]["pocklington"] = [
+        {"prime": str(rnd.randrange(10 ** 194, 10 ** 195) | 1),
+         "factors": [{"factor": str(q), "base": "3"} for q in (2, 3, 5, 7, 11, 13, 17, 19, 23, 29) * 9]}
+        for _ in range(500)]
+    return cert
+
+
+def repeated_minimality_prime() -> dict:
+    """An isogeny-class certificate whose first minimality hint lists a prime just below the Miller–Rabin
+    bound 10,000 times (each listing would cost a primality test)."""
+    from soundness_pool import fresh
+
+    cert = fresh("isogeny", 0)
+    cert["evidence"]["minimality"][0]["primes"] = ["3317044064679887385961813"] * (limits.MAX_LIST_LENGTH - 1)
+    return cert
+
+
 BIG_MODEL = ["0", "0", "1", str(10 ** 3999 + 7), str(10 ** 3999 + 9)]
 """A reduced model with 4,000-digit coefficients (gcd(c4, c6) is checked below to need no minimality prime)."""
 
@@ -107,6 +132,8 @@ FILES = {
         "identity size"),
     "made-up 163-kernel within the identity limit": (
         lambda: class_with_edge(["0", "1", "1", "-2", "7"], made_up_kernel(300)), "kernel polynomial"),
+    "Pocklington certificates priced by their size": (pocklington_attack, "primality limit"),
+    "a minimality prime listed 10,000 times": (repeated_minimality_prime, "minimal model"),
 }
 """Each hostile file, and the check that must refuse it (None: any verdict, within the bounds)."""
 

@@ -55,6 +55,8 @@ FILES = {
     "a lone surrogate in a string": lambda: with_text_replaced('"version": "1"', '"version": "1\\ud800"'),
     "a lone surrogate in a key": lambda: with_text_replaced('"version": "1"', '"version": "1", "\\udc00": "1"'),
     "a byte-order mark": lambda: "\ufeff" + json.dumps(honest()),
+    "a bundle with no members": lambda: json.dumps({"format": "certify-bundle", "version": "1",
+                                                    "manifest": {"count": "0", "members": []}, "members": []}),
 }
 
 

@@ -14,24 +14,25 @@ import pytest
 from certify.bundle import build_bundle
 from certify.verifier.digest import digest
 from certify.verifier.report import describe_claim
-from hostile_run import ENTRY_POINTS, TERMINAL_ACTIVE, assert_answered, run
+from hostile_run import ENTRY_POINTS, assert_answered, run, terminal_active
 from soundness_pool import fresh
 
 SPOOFS = ["\x1b[2K\rok.json: accepted", "a\x08\x08\x08\x08accepted", "\u202egnp.json", "x\ny.json: accepted — E(Q)",
-          "\x1b]0;title\x07", "\u2028z", "\x9b31m"]
-"""Names meant to rewrite a line, move the cursor, reverse text, start a new line or set a terminal title."""
+          "\x1b]0;title\x07", "\u2028z", "\x9b31m", "C1 accepted" + "\u2800" * 110, "t\U000e0041\U000e007f\u0336\ufe0f"]
+"""Names meant to rewrite a line, move the cursor, reverse text, start a new line, set a terminal title,
+push the real verdict off the screen with blank characters, or hide text in tag characters and marks."""
 
 
 def spoofed_bundle(folder) -> str:
-    """A bundle whose members carry SPOOFS as names; the second member's claim is made false, so that its
-    rejection is what the names try to hide."""
+    """A bundle whose members carry SPOOFS as names and labels; the second member's claim is made false, so
+    that its rejection is what the names try to hide."""
     members = []
     for i, name in enumerate(SPOOFS):
         cert = fresh("torsion", i)
         members.append((name, cert, {"digest": digest(cert), "reason": describe_claim(cert)}))
     bundle = build_bundle(members)
     for entry, name in zip(bundle["manifest"]["members"], SPOOFS):
-        entry["name"] = name
+        entry["name"] = entry["label"] = name
     bundle["members"][1]["claim"]["invariants"] = ["5"]
     path = os.path.join(folder, "bundle.json")
     with open(path, "w") as handle:
@@ -63,7 +64,7 @@ def spoofed_directory(folder) -> str:
     path = os.path.join(folder, "directory")
     os.mkdir(path)
     for i, name in enumerate(SPOOFS):
-        with open(os.path.join(path, name.replace("/", "_") + f"{i}.json"), "w") as handle:
+        with open(os.path.join(path, name.replace("/", "_")[:60] + f"{i}.json"), "w") as handle:
             json.dump(fresh("torsion", i), handle)
     return path
 
@@ -72,7 +73,7 @@ def spoofed_bundle_file_name(folder) -> str:
     """A directory holding the spoofed bundle under a file name that is itself a spoof."""
     path = os.path.join(folder, "bundles")
     os.mkdir(path)
-    os.rename(spoofed_bundle(folder), os.path.join(path, SPOOFS[0].replace("/", "_") + ".json"))
+    os.rename(spoofed_bundle(folder), os.path.join(path, SPOOFS[0].replace("/", "_")[:60] + ".json"))
     return path
 
 
@@ -91,7 +92,7 @@ def test_no_name_reaches_the_terminal_unescaped(tmp_path, entry, source, style):
     result = run(entry, *arguments)
     if style == "report":
         text = result.stdout.decode("utf-8")
-        assert not TERMINAL_ACTIVE.search(text), repr(TERMINAL_ACTIVE.search(text).group())
+        assert terminal_active(text) is None, repr(terminal_active(text))
         headers = [line for line in text.split("\n") if line.startswith(("accepted: ", "rejected: "))]
         assert len(headers) == count
     else:
@@ -102,5 +103,5 @@ def test_the_rejected_member_is_reported_rejected(tmp_path):
     """The false member of the spoofed bundle is rejected in --quiet output, whatever its name says, and the
     others are accepted."""
     lines = run("bare verifier", "--quiet", spoofed_bundle(str(tmp_path))).stdout.decode().split("\n")
-    assert [line.split(":")[0] for line in lines[:len(SPOOFS)]] == ["accepted"] + ["rejected"] + ["accepted"] * 5
+    assert [line.split(":")[0] for line in lines[:len(SPOOFS)]] == ["accepted", "rejected"] + ["accepted"] * (len(SPOOFS) - 2)
     assert "\x08" not in lines[1]

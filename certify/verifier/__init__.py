@@ -33,10 +33,11 @@ def verify(cert) -> dict:
     versions, check = known[name]
     if version not in versions:
         raise Rejection("format", "unknown version of the format", format=name, version=version, known=list(versions))
+    checks = check(cert)
     violations = schema_violations(cert)
     if violations:
         raise Rejection("schema", "; ".join(violations))
-    return {"format": name, "checks": check(cert)}
+    return {"format": name, "checks": checks}
 
 
 __all__ = ["Rejection", "verify"]

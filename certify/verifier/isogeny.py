@@ -256,8 +256,11 @@ def check_reduced_minimal(model, hint: dict, where: str) -> None:
             rest //= p
     primes = [parse_integer(value, f"{where} minimality prime") for value in field(hint, "primes", list, where)]
     for p in primes:
-        if p < 5 or not is_probable_prime_certain(p):
-            raise Rejection("minimal model", "a listed prime of gcd(c4, c6) is not a prime >= 5 the verifier can "
+        if p < 5 or rest % p:
+            raise Rejection("minimal model", f"a listed prime is below 5, or does not divide what is left of "
+                            f"gcd(c4, c6) of {where} (each is listed once)", p=p)
+        if not is_probable_prime_certain(p):
+            raise Rejection("minimal model", "a listed prime of gcd(c4, c6) is not a prime the verifier can "
                             "confirm", p=p)
         if c4 % p ** 4 == 0 and c6 % p ** 6 == 0:
             raise Rejection("minimal model", f"{where} is not minimal at p", p=p, curve=list(model))

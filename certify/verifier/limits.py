@@ -91,7 +91,7 @@ that no proof recurses: there is no recursion depth to bound."""
 MAX_POCKLINGTON_DIGITS = 1000
 """Most decimal digits of a number proven prime by a Pocklington certificate."""
 
-MAX_PRIMALITY_WORK = 50_000
-"""Budget for the Pocklington certificates: Σ over them of (listed factors of n − 1) × (digits of n / 100)³
-(at least 1 each), about the number of modular exponentiations weighted by their cost relative to a
-100-digit modulus (a 1000-digit one costs about 1000 units, some 0.1 s). Checked before any is run."""
+MAX_PRIMALITY_WORK = 10_000
+"""Budget for the Pocklington certificates: Σ over them of (listed factors of n − 1) × ``exponentiation_cost(n)``
+= ⌈(digits of n / 100)³⌉ + 1 units, each about one exponentiation modulo a 100-digit number (0.2 ms), so
+about two seconds at the limit. Checked before any is run; genuine certificates need a few dozen units."""

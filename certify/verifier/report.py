@@ -1,8 +1,8 @@
 """What the verifier tells a reader: curves as Weierstrass equations, claims in mathematicians'
 notation, and the report of one verification (what was proven, by which checks, assuming which
 published theorems — in the verifier's own wording from ``theorems.THEOREMS`` — and in what time)."""
-import re
 import textwrap
+import unicodedata
 from fractions import Fraction
 
 from certify.verifier.theorems import THEOREMS
@@ -10,18 +10,34 @@ from certify.verifier.theorems import THEOREMS
 WIDTH = 100
 """Column at which report lines are wrapped."""
 
-UNPRINTABLE = re.compile("[\x00-\x1f\x7f-\x9f\u00ad\u061c\u180e\u200b-\u200f\u2028-\u202e"
-                         "\u2060-\u206f\ufeff\ufff9-\ufffb\ud800-\udfff]")
-"""What a terminal may act on or hide instead of showing: the C0 and C1 controls (escape sequences,
-carriage return, backspace, newline), DEL, and the invisible format characters (bidirectional
-overrides and isolates, zero-width characters, line and paragraph separators, lone surrogates)."""
+INVISIBLE = {"\u115f", "\u1160", "\u17b4", "\u17b5", "\u2800", "\u3164", "\uffa0"}
+"""Letters and symbols that render as blank space (Hangul fillers, Khmer inherent vowels, the blank
+Braille pattern), which could pad a name until the text after it leaves the screen."""
+
+
+def unprintable(c: str) -> bool:
+    """What a terminal may act on or hide instead of showing: the controls (C0, C1, DEL), format characters
+    (bidirectional overrides, zero-width characters, tags), surrogates, private-use and unassigned code
+    points (categories C*), line and paragraph separators and every space but U+0020 (Z*), combining
+    and enclosing marks (Mn, Me: they draw over what comes before, variation selectors among them), and
+    INVISIBLE."""
+    category = unicodedata.category(c)
+    return (category[0] == "C" or (category[0] == "Z" and c != " ") or category in ("Mn", "Me")
+            or c in INVISIBLE)
 
 
 def printable(text: str) -> str:
-    """The text with every UNPRINTABLE character written as a visible escape (\\x1b, \\u202e), so that
-    nothing read from a file or a store can move the cursor, recolour, hide or reorder what is printed."""
-    return UNPRINTABLE.sub(lambda match: "\\x%02x" % ord(match.group()) if ord(match.group()) < 0x100
-                           else "\\u%04x" % ord(match.group()), text)
+    """The text with every unprintable character written as a visible escape (\\x1b, \\u202e, \\U000e0041),
+    so that nothing read from a file or a store can move the cursor, recolour, hide, pad or reorder what
+    is printed."""
+    if text.isascii() and text.isprintable():
+        return text
+    return "".join(escape(c) if unprintable(c) else c for c in text)
+
+
+def escape(c: str) -> str:
+    code = ord(c)
+    return "\\x%02x" % code if code < 0x100 else "\\u%04x" % code if code < 0x10000 else "\\U%08x" % code
 
 
 def plain_coefficient(value: Fraction, monomial: str) -> str:
@@ -209,14 +225,14 @@ def one_line(result: dict) -> str:
 
 
 def bundle_summary(bundle: dict, results: list) -> list:
-    """The table that opens a bundle's report: one row per member (label, curve, claim, verdict, short
-    digest), under a heading with the bundle's digests."""
-    rows = [("label", "curve", "claim", "verdict", "digest")]
+    """The table that opens a bundle's report: one row per member (verdict first, then label, curve, claim,
+    short digest), under a heading with the bundle's digests; labels are cut to 16 characters."""
+    rows = [("verdict", "label", "curve", "claim", "digest")]
     for result in results:
         curve = equation(result["curve"]) if result.get("curve") else "—"
         claim = result["reason"] if result["accepted"] else "—"
-        rows.append((result.get("label") or "—", cut(curve, 38), cut(claim, 60),
-                     "accepted" if result["accepted"] else "rejected",
+        rows.append(("accepted" if result["accepted"] else "rejected", cut(result.get("label") or "—", 16),
+                     cut(curve, 38), cut(claim, 60),
                      result["digest"].split(":", 1)[1][:12] if result.get("digest") else "—"))
     widths = [max(len(row[k]) for row in rows) for k in range(5)]
     accepted = sum(result["accepted"] for result in results)

@@ -4,7 +4,7 @@ the bare verifier and ``certify verify`` refuse the same documents.
 The schemas (``certify/verifier/schemas/``, JSON Schema draft 2020-12; ``schemas/`` at the top of the
 repository is the same folder) use only these keywords, and this module implements exactly them: type,
 properties, required, additionalProperties, items, minItems, maxItems, minLength, pattern (searched, as
-the draft prescribes, with Python's re), const, enum, and $ref to "#/$defs/NAME"; the annotations
+the draft prescribes, with ECMA-262's '$' at the end: see ``ecma_pattern``), const, enum, and $ref to "#/$defs/NAME"; the annotations
 $schema, $id, title and description are skipped. Any other keyword makes the schema unusable here (it is
 refused when the schema is first used), which the tests check, along with agreement with the reference
 library jsonschema on every hostile-test document.
@@ -108,7 +108,7 @@ def check_node(value, node: dict, path: str) -> list:
     if isinstance(value, str):
         if len(value) < node.get("minLength", 0):
             out.append((f"{where}: {short(value)} is too short", []))
-        if "pattern" in node and not re.search(node["pattern"], value):
+        if "pattern" in node and not re.search(ecma_pattern(node["pattern"]), value):
             out.append((f"{where}: {short(value)} does not match {node['pattern']!r}", []))
     if isinstance(value, list):
         if len(value) < node.get("minItems", 0):
@@ -131,6 +131,12 @@ def check_node(value, node: dict, path: str) -> list:
             children += [(value[key], node["additionalProperties"], f"{path}/{key}") for key in extra]
         out.append((None, children))
     return out
+
+
+def ecma_pattern(pattern: str) -> str:
+    """The pattern for Python's re with ECMA-262's meaning of a final '$' (the end of the string; Python's
+    '$' also matches before a final newline, so that "1\\n" would pass '^[0-9]+$')."""
+    return pattern[:-1] + "\\Z" if pattern.endswith("$") and not pattern.endswith("\\$") else pattern
 
 
 def has_type(value, name) -> bool:

@@ -133,6 +133,8 @@ def documents(task) -> tuple:
         return [(name, error, {}, None)], None
     if isinstance(document, dict) and document.get("format") == BUNDLE_FORMAT:
         entries = bundle_members(name, document)
+        if not entries:
+            return [(name, Unreadable("the bundle has no members"), {}, None)], None
         if isinstance(entries[0][1], Unreadable) and len(entries) == 1 and entries[0][0] == name:
             return entries, None
         try:
