@@ -36,6 +36,19 @@ def terminal_active(text: str):
     return None
 
 
+def write_files(folder, builders: dict, stem: str) -> dict:
+    """{name: path} for files ``stem-i.json`` written in ``folder``, one per name, from ``builders[name]``: a
+    function of no arguments returning the file's text, or a JSON value to write; a value (build, check)
+    names its build first."""
+    paths = {}
+    for i, (name, build) in enumerate(builders.items()):
+        content = (build[0] if isinstance(build, tuple) else build)()
+        paths[name] = str(folder / f"{stem}-{i}.json")
+        with open(paths[name], "w", encoding="utf-8", errors="surrogatepass") as handle:
+            handle.write(content if isinstance(content, str) else json.dumps(content))
+    return paths
+
+
 def _limit_memory() -> None:
     resource.setrlimit(resource.RLIMIT_AS, (MEGABYTES * 2 ** 20, MEGABYTES * 2 ** 20))
 

@@ -3,8 +3,6 @@ with its own Rejection or accept a claim that is true according to the reference
 ellglobalred, elllocalred and ellap, through conductor_reference.claim_is_true). Any other exception, or
 a false claim accepted, fails the test. The limits are refused by name before the work they bound."""
 import copy
-import functools
-import json
 from fractions import Fraction
 
 import pytest
@@ -18,6 +16,7 @@ from certify.verifier.limits import (MAX_DISCRIMINANT_PRIMES, MAX_POCKLINGTON_CE
                                      MAX_PRIMALITY_WORK)
 from certify.verifier.primality import MILLER_RABIN_BOUND
 from conductor_reference import claim_is_true, fixture_rows
+from seeded_certificates import SeededPool
 
 SEEDS = [(0, -1, 1, -10, -20), (0, 0, 0, 0, 1), (Fraction(1, 2), 0, 0, 3, Fraction(-5, 4)), (0, 0, 0, -1, 0),
          (0, 0, 1, -1, 10 ** 30 + 7), (0, 0, 1, -1, 5224141144273181513418447124275393811521945597),
@@ -32,22 +31,8 @@ REDUCTIONS = ["split multiplicative", "non-split multiplicative", "additive", "g
 NUMBERS = ["0", "1", "2", "3", "4", "5", "6", "7", "8", "9", "10", "11", "12", "-1", "37", "64"]
 
 
-@functools.lru_cache(maxsize=None)
-def original(index: int) -> str:
-    return json.dumps(certify_conductor(tuple(Fraction(c) for c in SEEDS[index])))
-
-
-def fresh(index: int) -> dict:
-    return json.loads(original(index))
-
-
-def outcome(cert) -> None:
-    """The soundness rule: Rejection, or acceptance of a claim that cypari2 confirms."""
-    try:
-        verify(cert)
-    except Rejection:
-        return
-    assert claim_is_true(cert), "a false claim was accepted"
+POOL = SeededPool(certify_conductor, SEEDS, claim_is_true)
+fresh, outcome = POOL.fresh, POOL.outcome
 
 
 seeds = st.integers(0, len(SEEDS) - 1)

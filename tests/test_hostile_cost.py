@@ -20,7 +20,7 @@ import pytest
 from certify.verifier import arith, isogeny, limits
 from certify.verifier.curves import count_points, discriminant
 from certify.verifier.theorems import entries
-from hostile_run import ENTRY_POINTS, assert_answered, run
+from hostile_run import ENTRY_POINTS, assert_answered, run, write_files
 
 TORSION_RELIES_ON = entries(("reduction-injective", "division-polynomials", "hensel-rational-roots",
                              "mazur-torsion"))
@@ -140,13 +140,7 @@ FILES = {
 
 @pytest.fixture(scope="module")
 def files(tmp_path_factory) -> dict:
-    folder = tmp_path_factory.mktemp("cost")
-    paths = {}
-    for i, (name, (build, _)) in enumerate(FILES.items()):
-        paths[name] = str(folder / f"attack-{i}.json")
-        with open(paths[name], "w") as handle:
-            json.dump(build(), handle)
-    return paths
+    return write_files(tmp_path_factory.mktemp("cost"), FILES, "cost")
 
 
 @pytest.mark.parametrize("entry", sorted(ENTRY_POINTS))

@@ -11,7 +11,7 @@ import sqlite3
 import pytest
 
 from certify.verifier.digest import digest
-from hostile_run import ENTRY_POINTS, assert_answered, run
+from hostile_run import ENTRY_POINTS, assert_answered, run, write_files
 from soundness_pool import fresh
 
 
@@ -62,13 +62,7 @@ FILES = {
 
 @pytest.fixture(scope="module")
 def files(tmp_path_factory) -> dict:
-    folder = tmp_path_factory.mktemp("json")
-    paths = {}
-    for i, (name, build) in enumerate(FILES.items()):
-        paths[name] = str(folder / f"json-{i}.json")
-        with open(paths[name], "w", encoding="utf-8", errors="surrogatepass") as handle:
-            handle.write(build())
-    return paths
+    return write_files(tmp_path_factory.mktemp("json"), FILES, "json")
 
 
 @pytest.mark.parametrize("entry", sorted(ENTRY_POINTS))

@@ -10,7 +10,7 @@ import json
 import pytest
 
 from certify.verifier import limits
-from hostile_run import ENTRY_POINTS, assert_answered, run
+from hostile_run import ENTRY_POINTS, assert_answered, run, write_files
 
 
 def torsion_shell(**fields) -> dict:
@@ -34,13 +34,7 @@ FILES = {
 
 @pytest.fixture(scope="module")
 def files(tmp_path_factory) -> dict:
-    folder = tmp_path_factory.mktemp("memory")
-    paths = {}
-    for i, (name, (build, _)) in enumerate(FILES.items()):
-        paths[name] = str(folder / f"memory-{i}.json")
-        with open(paths[name], "w") as handle:
-            handle.write(build())
-    return paths
+    return write_files(tmp_path_factory.mktemp("memory"), FILES, "memory")
 
 
 @pytest.mark.parametrize("entry", sorted(ENTRY_POINTS))
