@@ -188,3 +188,56 @@ def test_the_verifier_source_is_python_3_8():
 
     for path in (ROOT / "certify" / "verifier").glob("*.py"):
         ast.parse(path.read_text(encoding="utf-8"), feature_version=(3, 8))
+
+
+def with_bytes_appended(kit: Path, target: Path, extra: bytes) -> Path:
+    target.write_bytes(kit.read_bytes() + extra)
+    return target
+
+
+def two_directories(kit: Path, target: Path) -> Path:
+    """The kit with a second, altered central directory and end record after the first (the layout with which
+    zip readers disagree on which directory counts)."""
+    data = kit.read_bytes()
+    return with_bytes_appended(kit, target, b"\0\0\0\0" + data[data.rindex(b"PK\x01\x02"):])
+
+
+def recompressed(kit: Path, target: Path, method: int) -> Path:
+    with zipfile.ZipFile(kit) as source, zipfile.ZipFile(target, "w", method) as out:
+        for name in source.namelist():
+            out.writestr(name, source.read(name))
+    return target
+
+
+@pytest.mark.parametrize("damage", ["trailing bytes", "a second directory", "bzip2 members", "lzma members",
+                                    "a corrupt deflate stream"])
+def test_a_kit_not_laid_out_plainly_is_refused_by_every_reader(kit, tmp_path, damage):
+    """Each is refused, with one line and exit status 2, by the installed verifier, and by the kit itself
+    under python -S, with no traceback — except where the interpreter's own zip importer fails before any
+    of the kit's code runs (it reads only stored and deflated members, and meets a corrupt stream first)."""
+    build = {
+        "trailing bytes": lambda t: with_bytes_appended(kit, t, b"junk"),
+        "a second directory": lambda t: two_directories(kit, t),
+        "bzip2 members": lambda t: recompressed(kit, t, zipfile.ZIP_BZIP2),
+        "lzma members": lambda t: recompressed(kit, t, zipfile.ZIP_LZMA),
+        "a corrupt deflate stream": lambda t: corrupt_deflate(kit, t),
+    }[damage]
+    path = build(tmp_path / "damaged.pyz")
+    installed = subprocess.run([sys.executable, "-m", "certify.verifier", "--quiet", str(path)], capture_output=True,
+                               text=True, cwd=ROOT)
+    assert installed.returncode == 2 and "unreadable" in installed.stdout and "Traceback" not in installed.stderr
+    itself = run_bare(path, "--quiet", cwd=tmp_path)
+    assert itself.returncode != 0
+    assert damage not in ("trailing bytes", "a second directory") or "Traceback" not in itself.stderr, \
+        itself.stderr[-500:]
+
+
+def corrupt_deflate(kit: Path, target: Path) -> Path:
+    """The kit with one byte of the bundle's deflated data changed (the layout is intact)."""
+    data = bytearray(kit.read_bytes())
+    with zipfile.ZipFile(kit) as archive:
+        info = archive.getinfo("appendix.json")
+    start = info.header_offset + 30 + len(info.filename)
+    data[start + 10] ^= 0xFF
+    target.write_bytes(bytes(data))
+    return target

@@ -8,7 +8,9 @@ for all members but the bundle, sorted by path in byte order (``LC_ALL=C``), so 
 it from the extracted files with standard tools and compare it with the digest published for the release.
 """
 import hashlib
+import io
 import os
+import struct
 import sys
 import zipfile
 
@@ -70,32 +72,83 @@ class KitError(Exception):
 
 
 def read_kit(path: str) -> tuple:
-    """(bundle name, bundle bytes, {path: bytes} of the other members) of a kit. Refused: a file over
-    MAX_FILE_BYTES, a damaged archive, more than MAX_KIT_MEMBERS members, a name given twice (zip readers
-    differ on which copy they take), a name that is not a plain relative path, a member other than those
-    of a genuine kit, and not exactly one bundle."""
+    """(bundle name, bundle bytes, {path: bytes} of the other members) of a kit whose layout is the plain one
+    ``check_layout`` describes, refused otherwise, as is: a file over MAX_FILE_BYTES, a name given twice
+    (zip readers differ on which copy they take), a member other than those of a genuine kit, and not
+    exactly one bundle. Members are read through zipfile only once the layout leaves a single reading."""
     try:
-        if os.path.getsize(path) > MAX_FILE_BYTES:
-            raise KitError(f"the kit is larger than {MAX_FILE_BYTES} bytes")
-        with zipfile.ZipFile(path) as archive:
-            infos = archive.infolist()
-            if len(infos) > MAX_KIT_MEMBERS:
-                raise KitError(f"the kit has more than {MAX_KIT_MEMBERS} members")
-            names = [info.filename for info in infos]
-            if len(set(names)) != len(names):
-                raise KitError("the kit names a member twice")
-            if sum(info.file_size for info in infos) > MAX_FILE_BYTES:
-                raise KitError(f"the kit's members come to more than {MAX_FILE_BYTES} bytes")
-            for name in names:
-                check_member_name(name)
-            bundles = [n for n in names if "/" not in n and n.endswith(".json")]
-            if len(bundles) != 1:
-                raise KitError("a kit holds exactly one bundle, NAME.json, at its top level")
-            data = {name: archive.read(name) for name in names}
-    except (OSError, zipfile.BadZipFile, zipfile.LargeZipFile, RuntimeError, ValueError, EOFError) as error:
-        raise KitError(f"not a readable zip archive ({str(error)[:120]})")
+        with open(path, "rb") as handle:
+            data = handle.read(MAX_FILE_BYTES + 1)
+    except OSError as error:
+        raise KitError(f"cannot read the kit: {error.strerror}")
+    if len(data) > MAX_FILE_BYTES:
+        raise KitError(f"the kit is larger than {MAX_FILE_BYTES} bytes")
+    members = check_layout(data)
+    names = [name for name, _ in members]
+    if len(set(names)) != len(names):
+        raise KitError("the kit names a member twice")
+    for name in names:
+        check_member_name(name)
+    bundles = [n for n in names if "/" not in n and n.endswith(".json")]
+    if len(bundles) != 1:
+        raise KitError("a kit holds exactly one bundle, NAME.json, at its top level")
+    try:
+        with zipfile.ZipFile(io.BytesIO(data)) as archive:
+            contents = {}
+            for name, size in members:
+                with archive.open(name) as member:
+                    contents[name] = member.read(size + 1)
+                if len(contents[name]) != size:
+                    raise KitError(f"a member is not the size the archive records: {name}")
+    except KitError:
+        raise
+    except Exception as error:  # any failure of the archive reader on a hostile file: not a kit it can read
+        raise KitError(f"not a readable zip archive ({type(error).__name__}: {str(error)[:100]})")
     bundle = bundles[0]
-    return bundle, data.pop(bundle), data
+    return bundle, contents.pop(bundle), contents
+
+
+END_RECORD, CENTRAL_ENTRY, LOCAL_HEADER = b"PK\x05\x06", b"PK\x01\x02", b"PK\x03\x04"
+
+
+def check_layout(data: bytes) -> list:
+    """[(name, size)] of the members of a zip archive laid out the one way every zip reader (zipfile,
+    zipimport, unzip) reads alike, else KitError: the end record is the last 22 bytes (no comment, one
+    disk) and no zip64 record or locator exists; the central directory ends where the end record begins;
+    its entries, at most MAX_KIT_MEMBERS, carry no extra field, comment, encryption or data descriptor and
+    are stored or deflated; and the members' local headers, with the same names, methods and sizes, tile
+    the file from byte 0 up to the central directory without a gap."""
+    if len(data) < 22 or data[-22:-18] != END_RECORD:
+        raise KitError("the archive does not end with its end record (a comment, or trailing bytes)")
+    disk, first_disk, on_disk, count, size, offset, comment = struct.unpack("<HHHHIIH", data[-18:])
+    if disk or first_disk or on_disk != count or comment or count > MAX_KIT_MEMBERS:
+        raise KitError(f"the end record is not that of a plain archive of at most {MAX_KIT_MEMBERS} members")
+    if offset + size != len(data) - 22 or data[-42:-38] == b"PK\x06\x07":
+        raise KitError("the central directory does not end where the end record begins, or a zip64 locator exists")
+    members, position, local = [], offset, 0
+    for _ in range(count):
+        if data[position:position + 4] != CENTRAL_ENTRY:
+            raise KitError("a central directory entry is not where the one before it ends")
+        (flags, method, crc, packed, unpacked, name_length, extra_length, comment_length,
+         header) = struct.unpack("<4xHH4xIIIHHH8xI", data[position + 4:position + 46])
+        name = data[position + 46:position + 46 + name_length]
+        if flags & 0x9 or method not in (0, 8) or extra_length or comment_length or 0xFFFFFFFF in (packed, unpacked):
+            raise KitError("a member is encrypted, has a data descriptor, an extra field, a comment, zip64 sizes, "
+                           "or is neither stored nor deflated")
+        if header != local or data[local:local + 4] != LOCAL_HEADER:
+            raise KitError("the members do not follow one another from the start of the file")
+        local_fields = struct.unpack("<2xHH4xIIIHH", data[local + 4:local + 30])
+        if local_fields != (flags, method, crc, packed, unpacked, name_length, 0) or \
+                data[local + 30:local + 30 + name_length] != name:
+            raise KitError("a member's local header does not say what the central directory says")
+        members.append((name.decode("ascii", errors="replace"), unpacked))
+        local += 30 + name_length + packed
+        position += 46 + name_length
+    if local != offset or position != offset + size:
+        raise KitError("the members and the central directory do not fill the archive exactly")
+    if sum(member_size for _, member_size in members) > MAX_FILE_BYTES:
+        raise KitError(f"the kit's members come to more than {MAX_FILE_BYTES} bytes")
+    return members
 
 
 def check_member_name(name: str) -> None:
@@ -122,11 +175,19 @@ def extract(path: str, directory: str) -> list:
 
 
 def run_kit(argv: list) -> int:
-    """The kit's command line: the verifier's own, on the bundle the kit carries, or --extract DIR."""
+    """The kit's command line: the verifier's own, on the bundle the kit carries, or --extract DIR; a kit
+    whose own layout is not plain (``check_layout``) is refused first. This guards a genuine kit that was
+    damaged or altered by a tool; against an author who wrote the kit's code, the referee runs the
+    extracted copy instead (README, "Which verifier ran")."""
     from certify.verifier.cli import main
 
     archive = __loader__.archive
     shown = sys.argv[0] if os.path.isfile(sys.argv[0]) and os.path.samefile(sys.argv[0], archive) else archive
+    try:
+        read_kit(archive)
+    except KitError as error:
+        print(f"kit: {shown} is not a plain kit, refused: {error}", file=sys.stderr)
+        return 2
     if argv[:1] == ["--extract"] and len(argv) == 2:
         try:
             written = extract(archive, argv[1])

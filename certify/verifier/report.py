@@ -28,11 +28,12 @@ def unprintable(c: str) -> bool:
 
 def printable(text: str) -> str:
     """The text with every unprintable character written as a visible escape (\\x1b, \\u202e, \\U000e0041),
-    so that nothing read from a file or a store can move the cursor, recolour, hide, pad or reorder what
-    is printed."""
-    if text.isascii() and text.isprintable():
+    and every space that follows a space, so that nothing read from a file or a store can move the cursor,
+    recolour, hide, pad or reorder what is printed."""
+    if text.isascii() and text.isprintable() and "  " not in text:
         return text
-    return "".join(escape(c) if unprintable(c) else c for c in text)
+    return "".join(escape(c) if unprintable(c) or (c == " " and previous == " ") else c
+                   for previous, c in zip("\0" + text, text))
 
 
 def escape(c: str) -> str:
