@@ -13,7 +13,6 @@ found, 2 if a source cannot be read as certificates (unreadable, too large, not 
 bundle whose manifest does not match) or the output is closed before every verdict is written.
 """
 import argparse
-import functools
 import json
 import os
 import re
@@ -38,11 +37,10 @@ WINDOW = 1000
 DIGEST = re.compile(r"sha256:[0-9a-f]{64}")
 
 
-def check(name: str, document, recorded: dict, precheck=None, label=None) -> dict:
+def check(name: str, document, recorded: dict, label=None) -> dict:
     """The verdict on one certificate: {"file", "label", "accepted", "reason", "readable"} and, for a readable
-    one, "seconds", "digest", "curve", "relies_on" (keys) and, when accepted, "checks" (counts) and
-    "claim digest", "claim lines" (the claim in full). ``precheck(document)``, if given, returns
-    structural violations (``certify verify`` passes the JSON-Schema check); any of them rejects."""
+    one, "seconds", "digest", "curve", "relies_on" (keys) and, when accepted, "checks" (what was checked)
+    and "claim digest", "claim lines" (the claim in full). Names and reasons are made ``printable``."""
     name, label = printable(name), printable(label) if label else None
     if isinstance(document, Unreadable):
         return {"file": name, "label": label, "accepted": False, "reason": printable(f"unreadable: {document}"),
@@ -50,9 +48,6 @@ def check(name: str, document, recorded: dict, precheck=None, label=None) -> dic
     started = time.perf_counter()
     result = {"file": name, "label": label, "accepted": False, "readable": True, "checks": None, "digest": None}
     try:
-        violations = precheck(document) if precheck else []
-        if violations:
-            raise Rejection("schema", "; ".join(violations))
         result["checks"] = verify(document)["checks"]
         result["reason"] = describe_claim(document)
         result["digest"] = check_recorded(document, recorded, result["reason"])
@@ -95,10 +90,10 @@ def entries(task) -> tuple:
     return documents(task)
 
 
-def run_task(task, precheck=None) -> tuple:
+def run_task(task) -> tuple:
     """(verdicts, bundle) for one unit of work: one verdict per certificate, a bundle's facts or None."""
     found, bundle = entries(task)
-    return [check(name, document, recorded, precheck=precheck, label=label)
+    return [check(name, document, recorded, label=label)
             for name, document, recorded, label in found], bundle
 
 
@@ -111,12 +106,12 @@ def all_tasks(paths):
             yield ("unreadable", path, str(error))
 
 
-def task_results(paths, workers: int, precheck=None):
+def task_results(paths, workers: int):
     """(verdicts, bundle) for every unit of work, in source order; with workers > 1 the checks run in that
     many processes."""
     if workers <= 1:
         for task in all_tasks(paths):
-            yield run_task(task, precheck)
+            yield run_task(task)
         return
     import multiprocessing  # only here: importing it registers a module alias, __mp_main__
 
@@ -126,12 +121,12 @@ def task_results(paths, workers: int, precheck=None):
             window = list(islice(pending, WINDOW))
             if not window:
                 break
-            yield from pool.imap(functools.partial(run_task, precheck=precheck), window, chunksize=8)
+            yield from pool.imap(run_task, window, chunksize=8)
 
 
-def verdicts(paths, workers: int = 1, precheck=None):
+def verdicts(paths, workers: int = 1):
     """Every certificate's verdict, in source order (bundles flattened to their members)."""
-    for results, _ in task_results(paths, workers, precheck):
+    for results, _ in task_results(paths, workers):
         yield from results
 
 
@@ -147,7 +142,7 @@ def plural(n: int, noun: str) -> str:
     return f"{n} {noun}" + ("" if n == 1 else "s")
 
 
-def main(argv=None, precheck=None, program="certify verify") -> int:
+def main(argv=None, program="certify verify") -> int:
     parser = argparse.ArgumentParser(prog=program, description=(
         "Recheck certificates from scratch. SOURCE is a certificate, a bundle, a kit (.pyz), a directory of "
         "certificates, a .sqlite store, or - for standard input."))
@@ -170,7 +165,7 @@ def main(argv=None, precheck=None, program="certify verify") -> int:
     tally, bundles, seen, keys = {"accepted": 0, "rejected": 0, "unreadable": 0}, [], set(), []
     sys.stdout.reconfigure(errors="backslashreplace")  # names from files may hold unpaired surrogates
     try:
-        for results, bundle in task_results(args.sources, args.workers, precheck):
+        for results, bundle in task_results(args.sources, args.workers):
             for result in results:
                 tally["accepted" if result["accepted"] else "rejected" if result["readable"] else "unreadable"] += 1
                 seen.add(result["digest"])
