@@ -1,0 +1,162 @@
+"""Tests written for the mutants of the verifier that survived the first mutation run (issue 15;
+``tests/mutation_run.py``, ``python bench/bench_mutation.py``). Each test names the mutant it kills.
+
+Two kinds of test. Where a weakened check would accept a false claim, the test builds that certificate
+and asks cypari2 (the reference library) that the claim is false, so the verifier must reject it. Where the
+weakened check would only let a malformed certificate through to a later check (a duplicate, a bound
+shifted by one), the test holds the verifier to its documented rule: the certificate exactly at a limit is
+accepted (its claim confirmed by cypari2), one past it is refused by the check that names the limit.
+"""
+import copy
+
+import pytest
+
+from certify.curves import parse_curve
+from certify.pari import pari
+from certify.torsion import certify_torsion
+from certify.verifier import limits, verify
+from certify.verifier.errors import Rejection
+from soundness_pool import assert_sound, pari_curve
+from test_soundness_limits import good_primes
+
+Z2_Z6 = "[1,0,1,-19,26]"
+"""y² + xy + y = x³ − 19x + 26, whose torsion cypari2's elltors gives as Z/2 × Z/6."""
+
+
+def torsion_certificate(text: str = Z2_Z6) -> dict:
+    return copy.deepcopy(certify_torsion(parse_curve(text)))
+
+
+def rejection(cert) -> Rejection:
+    with pytest.raises(Rejection) as caught:
+        verify(cert)
+    return caught.value
+
+
+def point_counts(text: str, primes: list) -> list:
+    """evidence.primes entries with #E(F_p) from cypari2's ellcard."""
+    E = pari_curve(text.strip("[]").split(","))
+    return [{"p": str(p), "count": str(int(pari.ellcard(E, p)))} for p in primes]
+
+
+# --- torsion.py ---
+
+def test_a_group_over_mazurs_bound_is_refused_by_the_bound_itself():
+    """Kills MAZUR_LARGEST_GROUP 16 -> 17: Z/17 is no torsion group over Q (Mazur 1977, the theorem the
+    certificate cites), and the claim is refused by that bound, before any generator is examined."""
+    cert = torsion_certificate()
+    cert["claim"]["invariants"], cert["evidence"]["generator_orders"] = ["17"], ["17"]
+    cert["claim"]["generators"] = cert["claim"]["generators"][1:]
+    assert rejection(cert).check == "invariants"
+
+
+def test_exactly_max_primes_point_counts_are_accepted():
+    """Kills ``len(entries) >= MAX_PRIMES`` in read_primes: MAX_PRIMES correct counts (cypari2's ellcard)
+    are within the limit, and the claim stays the one cypari2's elltors confirms."""
+    cert = torsion_certificate()
+    cert["evidence"]["primes"] = point_counts(Z2_Z6, good_primes(Z2_Z6, limits.MAX_PRIMES, 3))
+    assert assert_sound(cert) is None
+
+
+def test_a_prime_listed_twice_is_refused():
+    """Kills the deleted raise for a prime listed twice in read_primes (evidence lists each prime once)."""
+    cert = torsion_certificate()
+    cert["evidence"]["primes"] = cert["evidence"]["primes"] * 2
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("structure", "a prime is listed twice")
+
+
+@pytest.mark.parametrize("ell", ["4", "9"])
+def test_an_ell_part_for_a_composite_ell_is_refused(ell):
+    """Kills ``not is_prime(ell) -> False`` in read_ell_parts: ℓ-parts are for primes ℓ only."""
+    cert = torsion_certificate()
+    cert["evidence"]["ell_parts"].append({"ell": ell, "torsion": {"prime": "5", "roots": []}, "classes": []})
+    assert rejection(cert).check == "ell part"
+
+
+# --- isogeny.py ---
+
+def test_a_model_that_scales_down_at_a_listed_prime_is_not_minimal():
+    """Kills the mutants of ``c4 % p ** 4 == 0 and c6 % p ** 6 == 0`` in check_reduced_minimal (and its
+    deleted raise): y² = x³ − 5⁴x + 5⁶ is in reduced form, 5 divides gcd(c4, c6) and is listed, but the
+    model is not minimal at 5 — cypari2's ellminimalmodel gives y² = x³ − x + 1."""
+    from certify.verifier.isogeny import check_reduced_minimal
+
+    model = (0, 0, 0, -5 ** 4, 5 ** 6)
+    assert [int(c) for c in pari.ellminimalmodel(pari_curve(model))[:5]] == [0, 0, 0, -1, 1]
+    with pytest.raises(Rejection) as caught:
+        check_reduced_minimal(model, {"primes": ["5"]}, "claim.curves[0]")
+    assert caught.value.message == "claim.curves[0] is not minimal at p"
+
+
+def test_three_invariants_are_refused_by_the_invariants_check():
+    """Kills ``len(invariants) > 2: 2 -> 3``: E(Q)_tors is a quotient of Z², so a claim with three
+    invariants is refused as such, before its generators are examined."""
+    cert = torsion_certificate()
+    cert["claim"]["invariants"] = cert["evidence"]["generator_orders"] = ["2", "2", "2"]
+    cert["claim"]["generators"] = cert["claim"]["generators"] + cert["claim"]["generators"][:1]
+    assert rejection(cert).check == "invariants"
+
+
+def test_invariants_out_of_divisibility_order_are_refused():
+    """Kills ``invariants[1] % invariants[0] -> invariants[1] % invariants[1]`` and the deleted raise after
+    it: [4, 2] with generators of orders 4 and 2 generates the whole torsion of y² + xy + y = x³ + x² − 10x − 10,
+    but the claim is not in the form n1 | n2, and cypari2's elltors (Z/2 × Z/4) denies it as written."""
+    from soundness_pool import torsion_claim_is_true
+
+    cert = torsion_certificate("[1,1,1,-10,-10]")
+    assert cert["claim"]["invariants"] == ["2", "4"]
+    cert["claim"]["invariants"] = cert["evidence"]["generator_orders"] = ["4", "2"]
+    cert["claim"]["generators"] = cert["claim"]["generators"][::-1]
+    assert not torsion_claim_is_true(cert)
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("invariants", "n1 must divide n2")
+
+
+def test_an_ell_part_for_the_largest_ell_is_within_the_limit():
+    """Kills ``ell > MAX_ELL -> ell >= MAX_ELL``: an ℓ-part for ℓ = MAX_ELL = 13 is allowed (here one the
+    point counts do not ask for, so it is read and budgeted but not needed); the claim is cypari2's."""
+    cert = torsion_certificate()
+    cert["evidence"]["ell_parts"].append({"ell": str(limits.MAX_ELL), "torsion": {"prime": "3", "roots": []},
+                                          "classes": []})
+    assert assert_sound(cert) is None
+
+
+def test_an_ell_listed_twice_is_refused():
+    """Kills ``ell in parts -> False`` in read_ell_parts: each ℓ is listed once."""
+    cert = torsion_certificate()
+    part = {"ell": "5", "torsion": {"prime": "3", "roots": []}, "classes": []}
+    cert["evidence"]["ell_parts"] += [part, copy.deepcopy(part)]
+    assert rejection(cert).check == "ell part"
+
+
+def test_the_prime_two_is_refused_as_a_bad_choice_of_prime():
+    """Kills ``p <= 2 -> False`` and ``p <= 2 -> p < 2`` in check_reduction_bound: p = 2 is refused by the
+    good-reduction rule (the reduction injects E(Q)_tors only for odd p), not later by the point count."""
+    cert = torsion_certificate()
+    cert["evidence"]["primes"].insert(0, {"p": "2", "count": "4"})
+    assert rejection(cert).check == "good reduction"
+
+
+# --- arith.py ---
+
+def test_a_hint_prime_of_exactly_max_digits_digits_is_read():
+    """Kills ``len(text) > MAX_DIGITS -> >=`` in parse_integer: a point-count prime of MAX_DIGITS digits is
+    read (and refused by the good-reduction rule, being over MAX_HINT_PRIME); one digit more is refused
+    by the number-size limit."""
+    cert = torsion_certificate()
+    cert["evidence"]["primes"][0]["p"] = "9" * limits.MAX_DIGITS
+    assert rejection(cert).check == "good reduction"
+    cert["evidence"]["primes"][0]["p"] = "9" * (limits.MAX_DIGITS + 1)
+    assert rejection(cert).check == "number size"
+
+
+def test_a_coefficient_of_exactly_max_digits_digits_is_read():
+    """Kills ``max(len(numerator), len(denominator)) > MAX_DIGITS -> >=`` in parse_rational: a curve
+    coefficient with a denominator of MAX_DIGITS digits is read (and the stated integral model is then not
+    its image); one digit more is refused by the number-size limit."""
+    cert = torsion_certificate()
+    cert["curve"][4] = "1/" + "9" * limits.MAX_DIGITS
+    assert rejection(cert).check != "number size"
+    cert["curve"][4] = "1/" + "9" * (limits.MAX_DIGITS + 1)
+    assert rejection(cert).check == "number size"
