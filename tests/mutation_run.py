@@ -259,6 +259,45 @@ def equivalent_reasons(path: Path = EQUIVALENT_FILE) -> dict:
     return reasons
 
 
+TEST_SECONDS = 20
+"""In a forked run, the longest one test may take (the slowest test of the lists takes a few seconds): a
+mutant that makes the verifier loop is stopped in the first test it traps rather than at the mutant's timeout."""
+
+TIMED_OUT = 124
+"""The forked child's exit status when a test ran over TEST_SECONDS."""
+
+
+class MutantTimeout(BaseException):
+    """A test ran over TEST_SECONDS: a BaseException, so that no ``except Exception`` of the code under test
+    swallows it."""
+
+
+class _TestAlarm:
+    """A pytest plugin that fails a test running over TEST_SECONDS, fixtures included (SIGALRM, handled
+    between two bytecodes), and the collection over three times that."""
+
+    def __init__(self):
+        self.fired = False
+
+    def _ring(self, signum, frame):
+        self.fired = True
+        raise MutantTimeout(f"a test ran over {TEST_SECONDS} s under the mutant")
+
+    def _arm(self, seconds: int) -> None:
+        import signal
+        signal.signal(signal.SIGALRM, self._ring)
+        signal.alarm(seconds)
+
+    def pytest_sessionstart(self, session):
+        self._arm(3 * TEST_SECONDS)
+
+    def pytest_runtest_logstart(self, nodeid, location):
+        self._arm(TEST_SECONDS)
+
+    def pytest_runtest_logfinish(self, nodeid, location):
+        self._arm(0)
+
+
 class Workspace:
     """A copy of the repository (its committed tree when it is a git checkout, plus ``extra`` files from the
     working tree) in which one module at a time is mutated."""
@@ -313,14 +352,17 @@ class Workspace:
                 os.environ.update(self.environment)
                 sys.path[:0] = [str(self.directory), str(self.directory / "tests")]
                 import pytest
-                status = int(pytest.main(arguments))
+                watch = _TestAlarm()
+                status = int(pytest.main(arguments, plugins=[watch]))
+                status = TIMED_OUT if watch.fired else status
             finally:
                 os._exit(status)
         deadline = time.monotonic() + timeout
         while True:
             done, status = os.waitpid(child, os.WNOHANG)
             if done:
-                return "passed" if os.waitstatus_to_exitcode(status) == 0 else "failed"
+                code = os.waitstatus_to_exitcode(status)
+                return "passed" if code == 0 else "timeout" if code == TIMED_OUT else "failed"
             if time.monotonic() > deadline:
                 os.killpg(child, 9)
                 os.waitpid(child, 0)

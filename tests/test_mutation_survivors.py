@@ -160,3 +160,93 @@ def test_a_coefficient_of_exactly_max_digits_digits_is_read():
     assert rejection(cert).check != "number size"
     cert["curve"][4] = "1/" + "9" * (limits.MAX_DIGITS + 1)
     assert rejection(cert).check == "number size"
+
+
+@pytest.mark.parametrize("seed", range(20))
+def test_polynomial_sums_and_products_agree_with_sympy_whichever_is_longer(seed):
+    """Kills ``i < len(f) -> i <= len(f)`` (and the same for g) in poly_add: the verifier's callers add a
+    longer polynomial to a shorter one only in some orders, so the primitives are checked against sympy
+    (the reference for polynomial arithmetic) on random integer polynomials of both orders of length."""
+    import random
+
+    import sympy
+
+    from certify.verifier.arith import poly_add, poly_mul, poly_sub
+
+    rnd, x = random.Random(seed), sympy.Symbol("x")
+    f = [rnd.randint(-50, 50) for _ in range(rnd.randint(0, 4))]
+    g = [rnd.randint(-50, 50) for _ in range(rnd.randint(5, 8))] + [rnd.randint(1, 50)]
+
+    def as_sympy(h):
+        return sympy.Poly(list(reversed(h)) or [0], x)
+
+    def coefficients(p):
+        return [int(c) for c in reversed(p.all_coeffs())] if not p.is_zero else []
+
+    for left, right in ((f, g), (g, f)):
+        assert poly_add(left, right) == coefficients(as_sympy(left) + as_sympy(right))
+        assert poly_sub(left, right) == coefficients(as_sympy(left) - as_sympy(right))
+        assert poly_mul(left, right) == coefficients(as_sympy(left) * as_sympy(right))
+
+
+def test_a_budget_may_be_spent_exactly_and_not_beyond():
+    """Kills ``self.spent > self.limit -> >=`` and the deleted raise in Budget.spend (the lifting budget,
+    MAX_LIFTING_WORK, of every certificate): spending the whole limit is allowed, one unit more is refused
+    by the budget's own check before the work it would pay for."""
+    from certify.verifier.arith import Budget
+
+    budget = Budget(limits.MAX_LIFTING_WORK, "lifting work")
+    budget.spend(limits.MAX_LIFTING_WORK - 1, "first search")
+    budget.spend(1, "second search")
+    with pytest.raises(Rejection) as caught:
+        budget.spend(1, "third search", degree=4)
+    assert caught.value.check == "lifting work" and caught.value.values["spent"] == limits.MAX_LIFTING_WORK + 1
+
+
+def hint_prime_for(f: list) -> int:
+    """The least odd prime p not dividing lc(f)·disc(f) (sympy's discriminant): every root of f mod p is
+    simple, as rational_roots requires of its hint."""
+    import sympy
+
+    x = sympy.Symbol("x")
+    poly = sympy.Poly(list(reversed(f)), x)
+    bad = int(poly.LC()) * int(sympy.discriminant(poly))
+    return next(p for p in sympy.primerange(3, 10 ** 5) if bad % p)
+
+
+@pytest.mark.parametrize("seed", range(25))
+def test_rational_roots_are_sympys_rational_roots(seed):
+    """Kills the mutants of rational_roots that lose or invent roots (``len(f) == 1: 1 -> 2`` returns early on
+    a linear factor left after the zero roots are taken out): random products of x^k (k ≤ 2), distinct linear
+    factors bx − a and perhaps the irreducible 2x² + odd, with the hint prime of ``hint_prime_for`` (taken
+    for f without its zero roots); the rational roots must be exactly sympy's."""
+    import random
+    from fractions import Fraction
+
+    import sympy
+
+    from certify.verifier.arith import Budget, poly_mul, rational_roots
+
+    rnd, x = random.Random(seed), sympy.Symbol("x")
+    zeros = rnd.randint(0, 2)
+    roots = {Fraction(rnd.randint(-40, 40) or 1, rnd.randint(1, 12)) for _ in range(rnd.randint(1, 3))}
+    f = [1]
+    for root in roots:
+        f = poly_mul(f, [-root.numerator, root.denominator])
+    if rnd.random() < 0.5:
+        f = poly_mul(f, [rnd.randint(1, 9) * 2 + 1, 0, 2])
+    hint = hint_prime_for(f)
+    f = [0] * zeros + f
+    expected = sorted(Fraction(str(r)) for r in sympy.roots(sympy.Poly(list(reversed(f)), x), filter="Q"))
+    assert rational_roots(f, hint, "test", Budget(10 ** 6, "lifting work")) == expected
+
+
+@pytest.mark.parametrize("hint", [1, 2, 9, 15, 100_001])
+def test_a_hint_that_is_not_an_odd_prime_up_to_the_limit_is_refused(hint):
+    """Kills ``is_prime(p) -> True`` (and the bounds) in rational_roots' hint check: Hensel's lemma needs a
+    prime; 9 and 15 are odd and small but composite."""
+    from certify.verifier.arith import Budget, rational_roots
+
+    with pytest.raises(Rejection) as caught:
+        rational_roots([-2, 0, 1], hint, "test", Budget(10 ** 6, "lifting work"))
+    assert caught.value.check == "rational roots" and "not an odd prime" in caught.value.message
