@@ -35,7 +35,7 @@ def local(cert: dict, p: int) -> tuple:
 # derived from N and Δ by Ogg's formula m_p = v_p(Δ) − f_p + 1; cypari2 checks each one as well.
 WORKED = [
     ((0, -1, 1, -10, -20), "11", "-161051", {11: ("I5", "split multiplicative", 1, 5)}),
-    # 37a1 has rank 1, so root number w = −1; for N = p prime, w = a_p, so the reduction is non-split
+    # y^2 + y = x^3 - x has rank 1, so root number w = −1; for N = p prime, w = a_p, so the reduction is non-split
     # (first recalled as split, which cypari2's ellap corrected).
     ((0, 0, 1, -1, 0), "37", "37", {37: ("I1", "non-split multiplicative", 1, 1)}),
     ((0, 0, 0, -1, 0), "32", "64", {2: ("III", "additive", 5, 2)}),
