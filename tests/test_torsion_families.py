@@ -3,8 +3,8 @@
 Mazur (1977, Publ. Math. IHÉS 47): E(Q)_tors is Z/n (1 ≤ n ≤ 10 or n = 12) or Z/2 × Z/2n (1 ≤ n ≤ 4).
 Kubert (1976, Proc. LMS 33, Table 3) parametrises the curves with a point of each order: for n ≥ 4
 the Tate normal form y² + (1 − c)xy − by = x³ − bx², where (0, 0) has order n, with b, c rational
-functions of a parameter t (the formulas are those of shared/math-notes.md, recalled from memory
-there and checked against cypari2). For each group there is a small parameter and one large enough
+functions of a parameter t (the formulas are recalled from memory and checked here against
+cypari2). For each group there is a small parameter and one large enough
 that the input coefficients have more than 100 digits; the certified group must be the one the
 family gives and the one cypari2's ``elltors`` computes, the verifier must accept, and the
 certificate must validate against the JSON Schema.
