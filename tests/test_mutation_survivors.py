@@ -250,3 +250,49 @@ def test_a_hint_that_is_not_an_odd_prime_up_to_the_limit_is_refused(hint):
     with pytest.raises(Rejection) as caught:
         rational_roots([-2, 0, 1], hint, "test", Budget(10 ** 6, "lifting work"))
     assert caught.value.check == "rational roots" and "not an odd prime" in caught.value.message
+
+
+@pytest.mark.parametrize("f, hint, roots", [([-1, 1], 3, [1]), ([-2, 1], 5, [2]), ([-3, 1], 7, [3]),
+                                            ([1, 1], 3, [-1])])
+def test_a_root_at_the_edge_of_the_symmetric_residues_is_found(f, hint, roots):
+    """Kills ``candidate > modulus // 2 -> >=`` in rational_roots: for x − a with hint p = 2a + 1 the lifting
+    modulus is p itself (the least power over 2·|lc·f(0)| = 2a), and lc·a = (p − 1)/2 is the largest
+    non-negative symmetric residue; the root is a, as a glance shows."""
+    from fractions import Fraction
+
+    from certify.verifier.arith import Budget, rational_roots
+
+    assert rational_roots(f, hint, "test", Budget(10 ** 6, "lifting work")) == [Fraction(r) for r in roots]
+
+
+def test_squarefree_parts_are_taken_up_to_degree_four_only():
+    """Kills ``len(f) - 1 <= MAX_SQUAREFREE_DEGREE: 1 -> 2``: (x − 1)²(x² + 2) of degree 4 has its
+    squarefree part taken and its root 1 found; (x − 1)²(x³ + 2), of degree 5 = MAX_SQUAREFREE_DEGREE + 1, is
+    refused (its root 1 is double modulo every prime)."""
+    from certify.verifier.arith import Budget, poly_mul, rational_roots
+
+    square = poly_mul([-1, 1], [-1, 1])
+    assert rational_roots(poly_mul(square, [2, 0, 1]), 5, "test", Budget(10 ** 6, "lifting work")) == [1]
+    with pytest.raises(Rejection) as caught:
+        rational_roots(poly_mul(square, [2, 0, 0, 1]), 5, "test", Budget(10 ** 6, "lifting work"))
+    assert caught.value.check == "rational roots" and caught.value.values["degree"] == 5
+
+
+# --- curves.py ---
+
+@pytest.mark.parametrize("a", [("1/2", "1/2", "1/2", "1/2", "1/2"), ("1/2", "-3/2", "5/2", "1/2", "7/2"),
+                               ("1/3", "2/3", "1/3", "4/3", "-1/3")])
+def test_invariants_and_changes_of_curves_with_a_common_denominator(a):
+    """Kills ``v.denominator == 1: 1 -> 2`` in curves.integral (which would take coefficients of
+    denominator 2 for integers): the discriminant and a change of variables of curves whose coefficients
+    all share a denominator, against cypari2's ellinit(...).disc and ellchangecurve."""
+    from fractions import Fraction
+
+    from certify.verifier.curves import change_model, discriminant
+
+    coefficients = tuple(Fraction(c) for c in a)
+    E = pari_curve(a)
+    assert discriminant(coefficients) == Fraction(str(E.disc()))
+    change = (Fraction(1), Fraction(1, 2), Fraction(1, 2), Fraction(1, 2))
+    expected = pari.ellchangecurve(E, [str(c) for c in change])
+    assert change_model(coefficients, change) == tuple(Fraction(str(c)) for c in expected[:5])
