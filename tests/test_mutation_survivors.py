@@ -296,3 +296,39 @@ def test_invariants_and_changes_of_curves_with_a_common_denominator(a):
     change = (Fraction(1), Fraction(1, 2), Fraction(1, 2), Fraction(1, 2))
     expected = pari.ellchangecurve(E, [str(c) for c in change])
     assert change_model(coefficients, change) == tuple(Fraction(str(c)) for c in expected[:5])
+
+
+@pytest.mark.parametrize("text", ["[1,-1,0,4,-3]", "[1,0,0,4,1]"])
+def test_a_point_of_order_two_with_x_of_denominator_four_is_torsion(text):
+    """Kills the constants of ``(4 * x).denominator != 1 or (8 * y).denominator != 1`` in torsion_order
+    moved by one: on these integral models (found by a search with cypari2's elltors) the point of order 2
+    is (3/4, −3/8) and (−1/4, 1/8), at the edge of Cassels' bound 4x, 8y ∈ Z; the certificate must be
+    accepted and its claim is cypari2's."""
+    cert = torsion_certificate(text)
+    assert any(point[0].endswith("/4") for point in cert["claim"]["generators"])
+    assert assert_sound(cert) is None
+
+
+@pytest.mark.parametrize("u", ["2", "-2", "-1"])
+def test_changes_with_u_other_than_one_on_integral_models(u):
+    """Kills ``whole[5] in (1, -1)`` with 1 -> 2 in change_model (the fast path for u = ±1 on integral
+    models would scale instead of divide for u = ±2): against cypari2's ellchangecurve."""
+    from fractions import Fraction
+
+    from certify.verifier.curves import change_model
+
+    a = (1, -1, 1, -2, 7)
+    change = (Fraction(u), Fraction(3), Fraction(1), Fraction(-2))
+    expected = pari.ellchangecurve(pari_curve(a), [str(c) for c in change])
+    assert change_model(tuple(Fraction(c) for c in a), change) == tuple(Fraction(str(c)) for c in expected[:5])
+
+
+def test_a_generator_off_the_curve_is_refused_as_such():
+    """Kills ``point is None -> is not None`` in on_curve (every affine point would lie on the curve): a
+    generator moved off y² + xy + y = x³ − 19x + 26 (cypari2's ellisoncurve says so) is refused by the
+    point-on-curve check, before any group law is applied to it."""
+    cert = torsion_certificate()
+    x, y = cert["claim"]["generators"][0]
+    cert["claim"]["generators"][0] = [x, str(int(y) + 1)]
+    assert not pari.ellisoncurve(pari_curve(cert["curve"]), [int(x), int(y) + 1])
+    assert rejection(cert).check == "point on curve"
