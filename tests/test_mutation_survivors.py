@@ -332,3 +332,44 @@ def test_a_generator_off_the_curve_is_refused_as_such():
     cert["claim"]["generators"][0] = [x, str(int(y) + 1)]
     assert not pari.ellisoncurve(pari_curve(cert["curve"]), [int(x), int(y) + 1])
     assert rejection(cert).check == "point on curve"
+
+
+def test_composites_listed_as_primes_cannot_hide_torsion(monkeypatch):
+    """Kills ``is_prime(p) -> True`` in count_points (check_reduction_bound leaves primality to it): the
+    claim 'E(Q)_tors ≅ Z/2' for y² + xy + y = x³ − 19x + 26 is false (cypari2's elltors: Z/2 × Z/6), and
+    the certificate lists the composites 77 and 11², coprime to Δ, with the 'counts' the counting formula
+    gives there (90 and 92, found with the primality test switched off, then on again). Were the formula
+    trusted at composites, the bound would be gcd(90, 92) = 2 = |G| and no ℓ-part would be asked for."""
+    from math import gcd
+
+    from certify.verifier import curves
+
+    cert = torsion_certificate()
+    model = tuple(int(c) for c in cert["evidence"]["integral_model"]["curve"])
+    with monkeypatch.context() as patched:
+        patched.setattr(curves, "is_prime", lambda n: True)
+        counts = {n: curves.count_points(model, n) for n in (77, 121)}
+    assert gcd(*counts.values()) == 2 and gcd(77 * 121, int(curves.discriminant(model))) == 1
+    order_two = next(P for P, n in zip(cert["claim"]["generators"], cert["evidence"]["generator_orders"]) if n == "2")
+    cert["claim"]["invariants"] = cert["evidence"]["generator_orders"] = ["2"]
+    cert["claim"]["generators"] = [order_two]
+    cert["evidence"]["primes"] = [{"p": str(n), "count": str(count)} for n, count in counts.items()]
+    cert["evidence"]["ell_parts"] = []
+    assert int(pari.elltors(pari_curve(cert["curve"]))[0]) == 12
+    failure = rejection(cert)
+    assert (failure.check, failure.values["p"]) == ("point count", 77)
+
+
+@pytest.mark.parametrize("a", [(1, 0, 1, -19, 26), (0, -1, 1, -10, -20), (1, -1, 0, 4, -3)])
+def test_division_polynomials_up_to_fourteen_are_paris(a):
+    """Kills ``m % 2: 2 -> 3`` in division_polynomials (wrong from ψ_8 on, which the ℓ-parts for ℓ = 7 and
+    the torsion polynomials for ℓ = 11, 13 use): every f_m, m ≤ 14, against cypari2's elldivpol, which is
+    ψ_m for m odd and ψ_m·ψ_2 = (ψ_m/ψ_2)·F for m even (PARI's documentation of elldivpol)."""
+    from certify.verifier.arith import poly_mul
+    from certify.verifier.curves import division_polynomials, two_division_polynomial
+
+    E = pari.ellinit(list(a))
+    ours = division_polynomials(tuple(a), 14)
+    for m in range(1, 15):
+        expected = [int(c) for c in reversed(pari.Vec(pari.elldivpol(E, m)))]
+        assert (ours[m] if m % 2 else poly_mul(ours[m], two_division_polynomial(a))) == expected, m
