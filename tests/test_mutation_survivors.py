@@ -373,3 +373,23 @@ def test_division_polynomials_up_to_fourteen_are_paris(a):
     for m in range(1, 15):
         expected = [int(c) for c in reversed(pari.Vec(pari.elldivpol(E, m)))]
         assert (ours[m] if m % 2 else poly_mul(ours[m], two_division_polynomial(a))) == expected, m
+
+
+def test_point_counts_of_exactly_the_work_limit_are_accepted():
+    """Kills ``work > MAX_WORK -> >=`` in torsion's check_work_budget: primes whose sum is exactly MAX_WORK
+    (the 50 largest good primes below MAX_HINT_PRIME and two more that make up the rest), with cypari2's
+    ellcard as counts, are within the limit; the claim stays the one cypari2's elltors confirms."""
+    import sympy
+
+    from certify.verifier.curves import discriminant
+
+    delta = int(discriminant((1, 0, 1, -19, 26)))
+    good = [p for p in sympy.primerange(3, limits.MAX_HINT_PRIME + 1) if delta % p][::-1]
+    chosen = good[:50]
+    rest = limits.MAX_WORK - sum(chosen)
+    q = next(q for q in good[50:] if rest - q in good[50:] and rest - q != q)
+    chosen += [q, rest - q]
+    assert sum(chosen) == limits.MAX_WORK
+    cert = torsion_certificate()
+    cert["evidence"]["primes"] = point_counts(Z2_Z6, chosen)
+    assert assert_sound(cert) is None
