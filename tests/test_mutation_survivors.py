@@ -457,3 +457,41 @@ def test_a_class_listed_twice_is_refused():
     part = next(p for p in cert["evidence"]["ell_parts"] if p["classes"])
     part["classes"].append(copy.deepcopy(part["classes"][0]))
     assert rejection(cert).message == "a class of G/ℓG is listed twice (or is the zero class)"
+
+
+def test_a_class_representative_outside_the_claimed_group_is_refused():
+    """Kills the deleted raise 'a class representative is not in the claimed group' in check_ell_part: for
+    the false claim Z/2 = ⟨2P⟩ on y² + xy + y = x³ + x² − 80x + 242 (Z/4 by cypari2), P itself is listed as
+    a class of G/2G; it is a rational point, but not one of G."""
+    from soundness_pool import honest_ell_parts, point_strings
+
+    cert = torsion_certificate("[1,1,1,-80,242]")
+    E = pari_curve(cert["curve"])
+    generator = cert["claim"]["generators"][0]
+    cert["claim"] = {"invariants": ["2"],
+                     "generators": [point_strings(pari.ellmul(E, [pari(c) for c in generator], 2))]}
+    cert["evidence"]["generator_orders"] = ["2"]
+    cert["evidence"]["ell_parts"] = honest_ell_parts(cert)
+    part = next(p for p in cert["evidence"]["ell_parts"] if p["classes"])
+    part["classes"][0]["point"] = generator
+    assert rejection(cert).message == "a class representative is not in the claimed group"
+
+
+def test_the_order_of_two_invariants_is_their_product_for_mazurs_bound():
+    """Kills ``len(invariants) == 2: 2 -> 3`` in the order of check_invariants (the order of [3, 6] would be
+    taken as 3): Z/3 × Z/6, of order 18, is no torsion group over Q (Mazur 1977)."""
+    cert = torsion_certificate()
+    cert["claim"]["invariants"] = cert["evidence"]["generator_orders"] = ["3", "6"]
+    failure = rejection(cert)
+    assert failure.check == "invariants" and failure.values == {"order": 18}
+
+
+def test_an_isogeny_class_of_nine_curves_is_refused_by_kenkus_bound():
+    """Kills KENKU_LARGEST_CLASS 8 -> 9: no isogeny class over Q has more than 8 curves (Kenku 1982), and
+    a claim of 9 is refused by that bound before anything else is read."""
+    from soundness_pool import fresh
+
+    cert = fresh("isogeny", 0)
+    cert["claim"]["curves"] = (cert["claim"]["curves"] * 9)[:9]
+    cert["claim"]["degrees"] = [["1"] * 9 for _ in range(9)]
+    assert rejection(cert).check == "class size"
