@@ -71,18 +71,12 @@ class KitError(Exception):
     """The file is not a kit this verifier reads."""
 
 
-def read_kit(path: str) -> tuple:
-    """(bundle name, bundle bytes, {path: bytes} of the other members) of a kit whose layout is the plain one
-    ``check_layout`` describes, refused otherwise, as is: a file over MAX_FILE_BYTES, a name given twice
-    (zip readers differ on which copy they take), a member other than those of a genuine kit, and not
-    exactly one bundle. Members are read through zipfile only once the layout leaves a single reading."""
-    try:
-        with open(path, "rb") as handle:
-            data = handle.read(MAX_FILE_BYTES + 1)
-    except OSError as error:
-        raise KitError(f"cannot read the kit: {error.strerror}")
-    if len(data) > MAX_FILE_BYTES:
-        raise KitError(f"the kit is larger than {MAX_FILE_BYTES} bytes")
+def read_kit(data: bytes) -> tuple:
+    """(bundle name, bundle bytes, {path: bytes} of the other members) of a kit (its bytes, as
+    ``sources.read`` gives them) whose layout is the plain one ``check_layout`` describes, refused
+    otherwise, as is: a name given twice (zip readers differ on which copy they take), a member other than
+    those of a genuine kit, and not exactly one bundle. Members are read through zipfile only once the
+    layout leaves a single reading."""
     members = check_layout(data)
     names = [name for name, _ in members]
     if len(set(names)) != len(names):
@@ -163,7 +157,9 @@ def check_member_name(name: str) -> None:
 
 def extract(path: str, directory: str) -> list:
     """Write the kit's members under ``directory`` (created), refusing any that exists; returns the paths."""
-    bundle, data, others = read_kit(path)
+    from certify.verifier.sources import read
+
+    bundle, data, others = read_kit(read(path))
     written = []
     for name, content in sorted(dict(others, **{bundle: data}).items()):
         target = os.path.join(directory, *name.split("/"))
@@ -180,18 +176,19 @@ def run_kit(argv: list) -> int:
     damaged or altered by a tool; against an author who wrote the kit's code, the referee runs the
     extracted copy instead (README, "Which verifier ran")."""
     from certify.verifier.cli import main
+    from certify.verifier.sources import Unreadable, read
 
     archive = __loader__.archive
     shown = sys.argv[0] if os.path.isfile(sys.argv[0]) and os.path.samefile(sys.argv[0], archive) else archive
     try:
-        read_kit(archive)
-    except KitError as error:
+        read_kit(read(archive))
+    except (KitError, Unreadable) as error:
         print(f"kit: {shown} is not a plain kit, refused: {error}", file=sys.stderr)
         return 2
     if argv[:1] == ["--extract"] and len(argv) == 2:
         try:
             written = extract(archive, argv[1])
-        except (KitError, OSError) as error:
+        except (KitError, OSError, Unreadable) as error:
             print(f"kit: cannot extract: {error}", file=sys.stderr)
             return 2
         print(f"{len(written)} files written under {argv[1]}:\n" + "\n".join(written))

@@ -47,8 +47,8 @@ def tasks(path: str):
         yield from store_rows(path)
     elif path.endswith(KIT_SUFFIX) and os.path.isfile(path):
         try:
-            bundle, data, _ = read_kit(path)
-        except KitError as error:
+            bundle, data, _ = read_kit(read(path))
+        except (KitError, Unreadable) as error:
             raise Unreadable(f"{path}: {error}")
         yield ("data", f"{path}#{bundle}", data)
     elif os.path.isdir(path):
