@@ -14,7 +14,8 @@ from certify.curves import Curve, _primes_dividing, format_rational
 from certify.verifier import theorems
 from certify.verifier.conductor import FORMAT, RELIES_ON
 from certify.verifier.primality import MILLER_RABIN_BOUND
-from certify.verifier.tate import local_data, valuation
+from certify.verifier.arith import valuation
+from certify.verifier.tate import local_data
 
 BASE_TRIALS = 1000
 """Bases tried for one factor q of a Pocklington certificate before the prime is taken for composite."""

@@ -44,6 +44,15 @@ def is_prime(n: int) -> bool:
     return all(n % d for d in range(2, isqrt(n) + 1))
 
 
+def valuation(n: int, p: int) -> int:
+    """v_p(n) for n ≠ 0."""
+    v = 0
+    while n % p == 0:
+        n //= p
+        v += 1
+    return v
+
+
 def prime_factors(n: int) -> list:
     """The distinct prime factors of a positive integer by trial division (n is a small group order here)."""
     factors, d = [], 2

@@ -18,10 +18,10 @@ from certify.verifier.arith import parse_integer
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve
 from certify.verifier.curves import discriminant
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_DISCRIMINANT_PRIMES
 from certify.verifier.models import check_input_model, check_reduced_form
-from certify.verifier.primality import check_prime, proven_primes, read_pocklington
-from certify.verifier.tate import local_data, valuation
+from certify.verifier.primality import (check_factorisation, check_primes_proven, proven_primes, read_factorisation,
+                                        read_pocklington)
+from certify.verifier.tate import local_data
 
 FORMAT = "certify-conductor"
 VERSIONS = ("1",)
@@ -41,14 +41,15 @@ def check_conductor_certificate(cert: dict) -> dict:
     claimed_discriminant = parse_integer(field(claim, "minimal_discriminant", str, "claim"), "claim.minimal_discriminant")
     local = read_local_data(field(claim, "bad_primes", list, "claim"))
     model_entry = field(evidence, "minimal_model", dict, "evidence")
-    factorisation = read_factorisation(field(evidence, "discriminant_factorisation", list, "evidence"))
+    factorisation = read_factorisation(field(evidence, "discriminant_factorisation", list, "evidence"),
+                                       "evidence.discriminant_factorisation")
     certificates = read_pocklington(field(evidence, "pocklington", list, "evidence"))
     check_relies_on(cert, RELIES_ON)
 
     model = check_minimal_model(a, model_entry)
     delta = check_minimal_discriminant(model, claimed_discriminant)
-    check_primes_proven(factorisation, proven_primes(certificates))
-    check_factorisation(delta, factorisation)
+    check_primes_proven(factorisation, proven_primes(certificates), "a prime of the discriminant's factorisation")
+    check_factorisation(delta, factorisation, "the discriminant")
     computed = [local_data(model, p) for p, _ in factorisation]
     check_local_data(local, computed)
     check_conductor(conductor, computed)
@@ -70,24 +71,6 @@ def read_local_data(entries: list) -> list:
             raise Rejection("structure", f"{where}.reduction must be one of {', '.join(REDUCTIONS)}",
                             reduction=reduction)
         out.append((numbers[0], numbers[1], field(entry, "kodaira_symbol", str, where), numbers[2], reduction))
-    return out
-
-
-def read_factorisation(entries: list) -> list:
-    """[(p, e)] from the evidence: at most MAX_DISCRIMINANT_PRIMES entries, primes strictly increasing
-    from 2 on, exponents at least 1."""
-    if len(entries) > MAX_DISCRIMINANT_PRIMES:
-        raise Rejection("list size", f"more than {MAX_DISCRIMINANT_PRIMES} primes in the discriminant's "
-                        "factorisation", primes=len(entries))
-    out = []
-    for i, entry in enumerate(entries):
-        where = f"evidence.discriminant_factorisation[{i}]"
-        p = parse_integer(field(entry, "prime", str, where), f"{where}.prime")
-        e = parse_integer(field(entry, "exponent", str, where), f"{where}.exponent")
-        if p < 2 or e < 1 or (out and p <= out[-1][0]):
-            raise Rejection("factorisation", "the primes must increase strictly from 2 on, with exponents >= 1",
-                            prime=p, exponent=e)
-        out.append((p, e))
     return out
 
 
@@ -113,27 +96,6 @@ def check_minimal_discriminant(model, claimed: int) -> int:
         raise Rejection("minimal discriminant", "the claimed minimal discriminant is not the discriminant of the "
                         "minimal model", claimed=claimed, computed=delta)
     return delta
-
-
-def check_primes_proven(factorisation: list, proven: set) -> None:
-    """Every prime of the factorisation is proven prime (Pocklington certificates already checked)."""
-    for p, _ in factorisation:
-        check_prime(p, proven, "a prime of the discriminant's factorisation")
-
-
-def check_factorisation(delta: int, factorisation: list) -> None:
-    """Each stated exponent is v_p(Δ), and Δ/∏ p^e is ±1. Each division is checked before the next, so
-    the work is at most the number of bits of Δ."""
-    rest = abs(delta)
-    for p, e in factorisation:
-        v = valuation(rest, p)
-        if v != e:
-            raise Rejection("factorisation", "a stated exponent is not the valuation of the discriminant",
-                            prime=p, stated=e, valuation=v)
-        rest //= p ** v
-    if rest != 1:
-        raise Rejection("factorisation", "the listed primes do not account for the whole discriminant",
-                        unexplained=rest)
 
 
 # --- local data and the conductor ---

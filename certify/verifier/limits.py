@@ -81,8 +81,9 @@ isogeny identity carries its cube (kernels from reduced minimal models have deno
 # --- conductor certificates (certify/verifier/conductor.py, certify/verifier/primality.py) ---
 
 MAX_DISCRIMINANT_PRIMES = 1000
-"""Most distinct primes listed for the minimal discriminant (each costs a primality proof and one run of
-Tate's algorithm; a discriminant within MAX_DIGITS has fewer than 1,300 distinct prime factors)."""
+"""Most distinct primes listed in one factorisation of the evidence: the minimal discriminant, or b and
+a² − 4b of a descent (each prime costs a primality proof, and at the discriminant one run of Tate's
+algorithm; a number within MAX_DIGITS has fewer than 1,300 distinct prime factors)."""
 
 MAX_POCKLINGTON_CERTIFICATES = 500
 """Most Pocklington certificates in one certificate. They form one flat list, checked smallest first, so

@@ -11,10 +11,10 @@ list. Since q < n, certificates are checked in increasing order of n and no recu
 """
 from math import gcd
 
-from certify.verifier.arith import parse_integer
+from certify.verifier.arith import parse_integer, valuation
 from certify.verifier.certificate import field
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_POCKLINGTON_CERTIFICATES, MAX_POCKLINGTON_DIGITS, MAX_PRIMALITY_WORK
+from certify.verifier.limits import MAX_DISCRIMINANT_PRIMES, MAX_POCKLINGTON_CERTIFICATES, MAX_POCKLINGTON_DIGITS, MAX_PRIMALITY_WORK
 
 MILLER_RABIN_BOUND = 3_317_044_064_679_887_385_961_981
 """Miller–Rabin to the first 13 prime bases is deterministic below this number (Sorenson and Webster 2016)."""
@@ -132,3 +132,42 @@ def check_prime(p: int, proven: set, what: str) -> None:
                         p=p)
     if not is_probable_prime_certain(p):
         raise Rejection("primality", f"{what} is not prime", p=p)
+
+
+# --- factorisations stated in the evidence ---
+
+def read_factorisation(entries: list, where: str) -> list:
+    """[(p, e)] from the evidence: at most MAX_DISCRIMINANT_PRIMES entries, primes strictly increasing
+    from 2 on, exponents at least 1."""
+    if len(entries) > MAX_DISCRIMINANT_PRIMES:
+        raise Rejection("list size", f"more than {MAX_DISCRIMINANT_PRIMES} primes in {where}", primes=len(entries))
+    out = []
+    for i, entry in enumerate(entries):
+        p = parse_integer(field(entry, "prime", str, f"{where}[{i}]"), f"{where}[{i}].prime")
+        e = parse_integer(field(entry, "exponent", str, f"{where}[{i}]"), f"{where}[{i}].exponent")
+        if p < 2 or e < 1 or (out and p <= out[-1][0]):
+            raise Rejection("factorisation", f"{where}: the primes must increase strictly from 2 on, with "
+                            "exponents >= 1", prime=p, exponent=e)
+        out.append((p, e))
+    return out
+
+
+def check_primes_proven(factorisation: list, proven: set, what: str) -> None:
+    """Every prime of the factorisation is proven prime (Pocklington certificates already checked)."""
+    for p, _ in factorisation:
+        check_prime(p, proven, what)
+
+
+def check_factorisation(n: int, factorisation: list, what: str) -> None:
+    """Each stated exponent is v_p(n), and n/∏ p^e is ±1. Each division is checked before the next, so
+    the work is at most the number of bits of n."""
+    rest = abs(n)
+    for p, e in factorisation:
+        v = valuation(rest, p)
+        if v != e:
+            raise Rejection("factorisation", f"a stated exponent is not the valuation of {what}",
+                            prime=p, stated=e, valuation=v)
+        rest //= p ** v
+    if rest != 1:
+        raise Rejection("factorisation", f"the listed primes do not account for the whole of {what}",
+                        unexplained=rest)

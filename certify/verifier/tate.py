@@ -17,6 +17,7 @@ may be large.
 """
 from dataclasses import dataclass
 
+from certify.verifier.arith import valuation
 from certify.verifier.curves import b_invariants, discriminant, translate
 from certify.verifier.errors import Rejection
 
@@ -37,15 +38,6 @@ class LocalData:
     """c_p, the order of the group of components defined over F_p."""
     reduction: str
     """good, split multiplicative, non-split multiplicative, or additive."""
-
-
-def valuation(n: int, p: int) -> int:
-    """v_p(n) for n ≠ 0."""
-    v = 0
-    while n % p == 0:
-        n //= p
-        v += 1
-    return v
 
 
 def exact(value: int, p: int, k: int) -> int:
