@@ -13,11 +13,12 @@ VERSION = "0.1.0"
 
 def checkers() -> dict:
     """format name → (accepted versions, check function)."""
-    from certify.verifier import conductor, isogeny, torsion
+    from certify.verifier import conductor, isogeny, rank, torsion
 
     return {torsion.FORMAT: (torsion.VERSIONS, torsion.check_torsion_certificate),
             isogeny.FORMAT: (isogeny.VERSIONS, isogeny.check_isogeny_certificate),
-            conductor.FORMAT: (conductor.VERSIONS, conductor.check_conductor_certificate)}
+            conductor.FORMAT: (conductor.VERSIONS, conductor.check_conductor_certificate),
+            rank.FORMAT: (rank.VERSIONS, rank.check_rank_certificate)}
 
 
 def verify(cert) -> dict:

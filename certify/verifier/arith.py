@@ -45,11 +45,19 @@ def is_prime(n: int) -> bool:
 
 
 def valuation(n: int, p: int) -> int:
-    """v_p(n) for n ≠ 0."""
-    v = 0
+    """v_p(n) for n ≠ 0 and a prime p, with O(log v) divisions: the powers p, p², p⁴, … that divide n,
+    then the binary digits of v from the top (at each step the valuation left is below the next power)."""
+    if p == 2:
+        return (n & -n).bit_length() - 1
+    powers = []
     while n % p == 0:
-        n //= p
-        v += 1
+        powers.append(p)
+        p *= p
+    v = 0
+    for i in reversed(range(len(powers))):
+        if n % powers[i] == 0:
+            n //= powers[i]
+            v += 1 << i
     return v
 
 

@@ -225,3 +225,47 @@ def points_with_x(a, x: Fraction) -> list:
     if root is None:
         return []
     return [(x, y) for y in sorted({(-linear + root) / 2, (-linear - root) / 2})]
+
+
+# --- the group E~(F_q) of the reduction at an odd prime q of good reduction ---
+
+def reduce_point(point, q: int):
+    """The reduction of a rational point of an integral model modulo q, as residues (x, y), or None for O.
+
+    On an integral model v_q(x) < 0 exactly when v_q(y) < 0 (y is a root of a monic polynomial with
+    q-integral coefficients once x is q-integral), and then the point reduces to O; otherwise its
+    reduction is (x mod q, y mod q) (Silverman, *The Arithmetic of Elliptic Curves*, VII.2)."""
+    if point is None or point[0].denominator % q == 0:
+        return None
+    x, y = point
+    return (x.numerator * pow(x.denominator, -1, q) % q, y.numerator * pow(y.denominator, -1, q) % q)
+
+
+def add_mod(a, p, r, q: int):
+    """P + R in E~(F_q) by the chord-and-tangent rule (Silverman III.2.3), for an integral model a with
+    good reduction at q; points are residue pairs, None is O."""
+    if p is None:
+        return r
+    if r is None:
+        return p
+    a1, a2, a3, a4, _ = (int(c) for c in a)
+    (x1, y1), (x2, y2) = p, r
+    if x1 == x2:
+        if (y1 + y2 + a1 * x2 + a3) % q == 0:
+            return None
+        slope = (3 * x1 * x1 + 2 * a2 * x1 + a4 - a1 * y1) * pow(2 * y1 + a1 * x1 + a3, -1, q) % q
+    else:
+        slope = (y2 - y1) * pow(x2 - x1, -1, q) % q
+    x3 = (slope * slope + a1 * slope - a2 - x1 - x2) % q
+    return x3, (-(slope + a1) * x3 - (y1 - slope * x1) - a3) % q
+
+
+def multiple_mod(a, n: int, point, q: int):
+    """n·P in E~(F_q) for n ≥ 0, by repeated doubling."""
+    result = None
+    while n:
+        if n & 1:
+            result = add_mod(a, result, point, q)
+        point = add_mod(a, point, point, q)
+        n >>= 1
+    return result

@@ -96,3 +96,33 @@ MAX_PRIMALITY_WORK = 10_000
 """Budget for the Pocklington certificates: Σ over them of (listed factors of n − 1) × ``exponentiation_cost(n)``
 = ⌈(digits of n / 100)³⌉ + 1 units, each about one exponentiation modulo a 100-digit number (0.2 ms), so
 about two seconds at the limit. Checked before any is run; genuine certificates need a few dozen units."""
+
+# --- rank certificates (certify/verifier/rank.py, certify/verifier/descent.py) ---
+
+MAX_RANK_POINTS = 64
+"""Most points in a rank claim (each is reduced and multiplied at every character prime)."""
+
+MAX_CHARACTER_ELL = 97
+"""Largest prime ℓ of the reduction characters (a discrete logarithm in a group of order ℓ is found by ℓ steps)."""
+
+MAX_DESCENT_PRIMES = 64
+"""Most primes in the factorisation of b, or of a² − 4b, of a descent: dim V is at most 65."""
+
+MAX_DESCENT_ELEMENTS = 4096
+"""Most points, local generators or exclusions on one side of a descent (the exclusions number |V/W| − 1,
+so W may have codimension at most 12 in V)."""
+
+MAX_DISCS = 20_000
+"""Most discs in all the disc covers of one certificate, counted before any is tested."""
+
+MAX_DISC_DEPTH = 40
+"""Largest k of a disc c + p^k Z_p."""
+
+MAX_DISC_PRIME = 1_000_000_000
+"""Largest prime p at which an exclusion by a disc cover is checked (membership witnesses, one Euler test
+each, are checked at any prime of the factorisations)."""
+
+MAX_LOCAL_WORK = 20_000
+"""Budget per certificate for the local tests of a descent (leaf tests and membership witnesses): each costs
+1 + (D/1000)² units, D the digits of the numbers it multiplies, plus ``exponentiation_cost(p)`` for an
+Euler test at a large p; about a tenth of a millisecond per unit. Charged before each test."""

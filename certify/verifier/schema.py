@@ -17,6 +17,7 @@ SCHEMA_FILES = {
     "certify-torsion": "torsion.schema.json",
     "certify-isogeny-class": "isogeny-class.schema.json",
     "certify-conductor": "conductor.schema.json",
+    "certify-rank": "rank.schema.json",
 }
 
 ANNOTATIONS = {"$schema", "$id", "title", "description", "$defs"}
