@@ -38,7 +38,7 @@ INFINITY = "infinity"
 
 
 def check_descent(a, entry: dict) -> tuple:
-    """The descent of ``evidence.descent`` on the curve a; returns (dim S_T, dim S̄_T)."""
+    """The descent of ``evidence.descent`` on the curve a; returns (dim S_T, dim S̄_T, cosets excluded)."""
     where = "evidence.descent"
     change = rationals(field(entry, "change", list, where), 4, f"{where}.change")
     A = parse_integer(field(entry, "a", str, where), f"{where}.a")
@@ -58,7 +58,7 @@ def check_descent(a, entry: dict) -> tuple:
     budget = Budget(MAX_LOCAL_WORK, "local work")
     return (check_side(A, B, [p for p, _ in primes_b], sides[0], places, budget, f"{where}.phi"),
             check_side(-2 * A, A * A - 4 * B, [p for p, _ in primes_dual], sides[1], places, budget,
-                       f"{where}.phi_dual"))
+                       f"{where}.phi_dual"), sum(len(side["exclusions"]) for side in sides))
 
 
 def check_descent_model(a, change, A: int, B: int) -> None:

@@ -51,9 +51,9 @@ def check_rank_certificate(cert: dict) -> dict:
     if descent is None:
         check_no_upper_bound(upper, selmer)
         return checks
-    dimensions = check_descent(a, descent)
+    *dimensions, excluded = check_descent(a, descent)
     check_upper_bound(lower, upper, selmer, dimensions)
-    checks["Selmer dimensions"] = f"{dimensions[0]} and {dimensions[1]}"
+    checks["cosets of the Selmer groups excluded"] = excluded
     return checks
 
 
