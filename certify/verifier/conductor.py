@@ -40,21 +40,37 @@ def check_conductor_certificate(cert: dict) -> dict:
     conductor = parse_integer(field(claim, "conductor", str, "claim"), "claim.conductor")
     claimed_discriminant = parse_integer(field(claim, "minimal_discriminant", str, "claim"), "claim.minimal_discriminant")
     local = read_local_data(field(claim, "bad_primes", list, "claim"))
-    model_entry = field(evidence, "minimal_model", dict, "evidence")
-    factorisation = read_factorisation(field(evidence, "discriminant_factorisation", list, "evidence"),
-                                       "evidence.discriminant_factorisation")
-    certificates = read_pocklington(field(evidence, "pocklington", list, "evidence"))
     check_relies_on(cert, RELIES_ON)
 
-    model = check_minimal_model(a, model_entry)
-    delta = check_minimal_discriminant(model, claimed_discriminant)
-    check_primes_proven(factorisation, proven_primes(certificates), "a prime of the discriminant's factorisation")
-    check_factorisation(delta, factorisation, "the discriminant")
-    computed = [local_data(model, p) for p, _ in factorisation]
+    model, delta, computed = check_conductor_evidence(a, evidence, "evidence")
+    check_minimal_discriminant(claimed_discriminant, delta)
     check_local_data(local, computed)
     check_conductor(conductor, computed)
-    return {"bad primes classified": len(computed), "primes proven": len(factorisation),
-            "Pocklington certificates checked": len(certificates)}
+    return {"bad primes classified": len(computed), "primes proven": len(computed),
+            "Pocklington certificates checked": len(evidence["pocklington"])}
+
+
+def check_conductor_evidence(a, evidence: dict, where: str) -> tuple:
+    """Steps 1–3 on the evidence fields minimal_model, discriminant_factorisation and pocklington (of a
+    conductor certificate, or embedded under ``where`` in another kind): returns (the reduced minimal model
+    as integers, its minimal discriminant Δ, [Tate's local data at each prime of Δ, in increasing order])."""
+    model_entry = field(evidence, "minimal_model", dict, where)
+    factorisation = read_factorisation(field(evidence, "discriminant_factorisation", list, where),
+                                       f"{where}.discriminant_factorisation")
+    certificates = read_pocklington(field(evidence, "pocklington", list, where))
+    model = check_minimal_model(a, model_entry, f"{where}.minimal_model")
+    delta = int(discriminant(model))
+    check_primes_proven(factorisation, proven_primes(certificates), "a prime of the discriminant's factorisation")
+    check_factorisation(delta, factorisation, "the discriminant")
+    return model, delta, [local_data(model, p) for p, _ in factorisation]
+
+
+def conductor_of(local: list) -> int:
+    """N = ∏ p^f_p over the bad primes (Ogg's formula gives each f_p)."""
+    product = 1
+    for data in local:
+        product *= data.prime ** data.exponent
+    return product
 
 
 # --- reading ---
@@ -76,26 +92,24 @@ def read_local_data(entries: list) -> list:
 
 # --- the model and its discriminant ---
 
-def check_minimal_model(a, entry: dict) -> tuple:
+def check_minimal_model(a, entry: dict, where: str) -> tuple:
     """The stated change takes the curve to the stated model, integral and in reduced form; returns the
     model as integers. (Minimality at every prime follows from Tate's algorithm, step 3.)"""
-    change = rationals(field(entry, "change", list, "evidence.minimal_model"), 4, "evidence.minimal_model.change")
-    model = rationals(field(entry, "curve", list, "evidence.minimal_model"), 5, "evidence.minimal_model.curve")
+    change = rationals(field(entry, "change", list, where), 4, f"{where}.change")
+    model = rationals(field(entry, "curve", list, where), 5, f"{where}.curve")
     if any(c.denominator != 1 for c in model):
         raise Rejection("minimal model", "the stated model is not integral", curve=entry["curve"])
     model = tuple(int(c) for c in model)
     check_input_model(a, model, change)
-    check_reduced_form(model, "evidence.minimal_model.curve")
+    check_reduced_form(model, f"{where}.curve")
     return model
 
 
-def check_minimal_discriminant(model, claimed: int) -> int:
-    """The claimed minimal discriminant is Δ of the model (Silverman III.1); returns it."""
-    delta = int(discriminant(model))
+def check_minimal_discriminant(claimed: int, delta: int) -> None:
+    """The claimed minimal discriminant is the discriminant Δ of the minimal model (Silverman III.1)."""
     if claimed != delta:
         raise Rejection("minimal discriminant", "the claimed minimal discriminant is not the discriminant of the "
                         "minimal model", claimed=claimed, computed=delta)
-    return delta
 
 
 # --- local data and the conductor ---
@@ -118,9 +132,7 @@ def check_local_data(claimed: list, computed: list) -> None:
 
 def check_conductor(conductor: int, computed: list) -> None:
     """N = ∏ p^f_p over the bad primes."""
-    product = 1
-    for data in computed:
-        product *= data.prime ** data.exponent
+    product = conductor_of(computed)
     if conductor != product:
         raise Rejection("conductor", "the claimed conductor is not the product of p^f_p", claimed=conductor,
                         computed=product)

@@ -126,3 +126,24 @@ MAX_LOCAL_WORK = 20_000
 """Budget per certificate for the local tests of a descent (leaf tests and membership witnesses): each costs
 1 + (D/1000)² units, D the digits of the numbers it multiplies, plus ``exponentiation_cost(p)`` for an
 Euler test at a large p; about a tenth of a millisecond per unit. Charged before each test."""
+
+# --- analytic rank witnesses (certify/verifier/lseries.py, certify/verifier/intervals.py) ---
+
+MAX_TRUNCATION = 12_000
+"""Largest truncation point M of the L-series: a_p is counted at every prime up to M (conductors up to
+about 10⁷ need no more for 60 bits)."""
+
+MAX_PRECISION_BITS = 128
+"""Largest claimed precision b (the tails must be below 2^−b; the series are summed with b + 2·bits(M) + 10
+bits). L-values of rank 0 and 1 curves are proven non-zero with 30 to 60 bits."""
+
+MAX_ANALYTIC_SERIES_WORK = 400_000
+"""Largest M × b: the series for L′(E, 1) takes one exponential integral per n ≤ M, each a series of about
+b terms; about two seconds at the limit."""
+
+MAX_ANALYTIC_COUNT_WORK = 5_000_000
+"""Budget for the point counts of an analytic witness, in residue evaluations: Σ p over the primes p ≤ M,
+computed from M before any count (about two seconds at the limit)."""
+
+MAX_TEST_POINT_DENOMINATOR = 1000
+"""Largest denominator of the functional-equation test point A, which must lie in (1, 2]."""

@@ -134,6 +134,54 @@ THEOREMS = {
         "a square exactly when its valuation is even and its unit part is such a square, and every number of "
         "p^v(w + pZ_p) (p odd), resp. 2^v(w + 8Z_2), is a square or none is.",
         "J.-P. Serre, A Course in Arithmetic, Springer GTM 7 (1973), II.3.3, Theorems 3 and 4"),
+
+    "modularity": (
+        "Every elliptic curve E over Q of conductor N is modular: L(E, s) = sum a_n n^-s, with a_p = p + 1 - "
+        "#E~(F_p) at good p, a_p = 1, -1, 0 at split multiplicative, non-split multiplicative and additive p, "
+        "and the Euler product, continues to an entire function, and Lambda(s) = N^(s/2) (2 pi)^-s Gamma(s) "
+        "L(E, s) satisfies Lambda(s) = w Lambda(2 - s) with w = +1 or -1.",
+        "A. Wiles, Modular elliptic curves and Fermat's Last Theorem, Ann. of Math. 141 (1995), 443-551; "
+        "R. Taylor and A. Wiles, Ring-theoretic properties of certain Hecke algebras, Ann. of Math. 141 (1995), "
+        "553-572; C. Breuil, B. Conrad, F. Diamond and R. Taylor, On the modularity of elliptic curves over Q: "
+        "wild 3-adic exercises, J. Amer. Math. Soc. 14 (2001), 843-939"),
+    "l-series-at-one": (
+        "With c = 2 pi/sqrt(N) and S(r) = sum_(n >= 1) (a_n/n) e^(-rn): for every A > 0, "
+        "L(E, 1) = S(cA) + w S(c/A); and when w = -1, L'(E, 1) = 2 sum_(n >= 1) (a_n/n) E_1(cn), with "
+        "E_1(x) the integral of e^-t/t from x to infinity. (Split the Mellin integral of the functional equation "
+        "at t = A.) Hence S(cA) + S(c/A) does not depend on A when w = +1, and S(cA) = S(c/A) for all A when "
+        "w = -1; L(E, 1) = 0 when w = -1.",
+        "J. E. Cremona, Algorithms for Modular Elliptic Curves, 2nd ed. (1997), 2.13; H. Cohen, A Course in "
+        "Computational Algebraic Number Theory, Springer GTM 138 (1993), 7.5"),
+    "hasse-bound": (
+        "|a_p| <= 2 sqrt(p) at every prime p of good reduction; hence |a_n| <= n for every n >= 1.",
+        "H. Hasse, Zur Theorie der abstrakten elliptischen Funktionenkorper I-III, J. Reine Angew. Math. 175 "
+        "(1936); J. H. Silverman, The Arithmetic of Elliptic Curves, 2nd ed., Springer GTM 106 (2009), V.1.1"),
+    "gross-zagier": (
+        "For an imaginary quadratic field K in which every prime of N splits, the canonical height of the "
+        "Heegner point y_K in E(K) is a non-zero constant times L'(E/K, 1); so y_K has infinite order exactly "
+        "when L'(E/K, 1) != 0.",
+        "B. H. Gross and D. B. Zagier, Heegner points and derivatives of L-series, Invent. Math. 84 (1986), "
+        "225-320"),
+    "kolyvagin": (
+        "If ord_(s=1) L(E, s) <= 1, then rank E(Q) = ord_(s=1) L(E, s) and the Tate-Shafarevich group of E is "
+        "finite. (Kolyvagin's Euler system of Heegner points, applied to an imaginary quadratic field K in which "
+        "the primes of N split and the twist's L-function has the right order of vanishing, whose existence "
+        "is proven by Bump-Friedberg-Hoffstein and Murty-Murty.)",
+        "V. A. Kolyvagin, Finiteness of E(Q) and Sha(E, Q) for a subclass of Weil curves, Izv. Akad. Nauk "
+        "SSSR Ser. Mat. 52 (1988), 522-540; V. A. Kolyvagin, Euler systems, The Grothendieck Festschrift II, "
+        "Birkhauser (1990), 435-483; D. Bump, S. Friedberg and J. Hoffstein, Nonvanishing theorems for "
+        "L-functions of modular forms and their derivatives, Invent. Math. 102 (1990), 543-618; M. R. Murty and "
+        "V. K. Murty, Mean values of derivatives of modular L-series, Ann. of Math. 133 (1991), 447-475"),
+    "interval-bounds": (
+        "Error bounds of the rigorous real arithmetic: an alternating series with terms decreasing to 0 lies "
+        "within its first omitted term of each partial sum (pi by Machin's formula pi = 16 arctan(1/5) - "
+        "4 arctan(1/239)); Taylor's theorem with the Lagrange remainder (e^-y); the series "
+        "ln x = 2 sum z^(2k+1)/(2k+1), z = (x - 1)/(x + 1), with a geometric tail; Euler-Maclaurin: "
+        "gamma = H_n - ln n - 1/(2n) + sum_(k=1..m) B_2k/(2k n^2k) - R with |R| below the first omitted term; "
+        "E_1(x) = -gamma - ln x - sum_(k >= 1) (-x)^k/(k k!), and 0 < E_1(x) < e^-x/x for x > 0.",
+        "W. Rudin, Principles of Mathematical Analysis, 3rd ed. (1976), Theorems 3.43 and 5.15; D. E. Knuth, "
+        "The Art of Computer Programming, vol. 1, 3rd ed. (1997), 1.2.7 and 1.2.11.2; M. Abramowitz and "
+        "I. A. Stegun, Handbook of Mathematical Functions (1964), 4.1.28, 5.1.11 and 5.1.20"),
 }
 
 
