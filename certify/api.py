@@ -1,11 +1,12 @@
 """certify's Python API: certify a curve, read the claim in Python types, write and verify certificates.
 
-    from certify.api import CertifyError, certify_torsion, certify_isogeny_class, verify
+    from certify.api import CertifyError, certify_rank, certify_torsion, certify_isogeny_class, verify
 
     cert = certify_torsion("y^2 + xy - (3/16)y = x^3 - (3/16)x^2")   # or [1, "-3/16", "-3/16", 0, 0]
     cert.claim.invariants        # (2, 4): E(Q)_tors ≅ Z/2Z × Z/4Z
     cert.write("z2z4.json")      # or cert.to_json()
     verify("z2z4.json").accepted # True
+    certify_rank([0, 0, 0, -25, 0]).claim.rank   # 1: y² = x³ − 25x has rank 1, proven
 
 A curve is CURVE text (the command line's syntax) or a list of 5 numbers [a1, a2, a3, a4, a6] or 2 [A, B]
 (y² = x³ + Ax + B), each an int, a Fraction or a string '3/16'. Every refusal — a malformed, singular or
@@ -23,15 +24,16 @@ from typing import Sequence, Union
 from certify.certificates import certify_checked, to_json, write_atomically
 from certify.curves import CurveInputError, curve_from_numbers, parse_curve
 
-__all__ = ["BadPrime", "CertifyError", "Certificate", "ConductorClaim", "IsogenyClassClaim", "TorsionClaim", "Verdict",
-           "certify_conductor", "certify_isogeny_class", "certify_torsion", "curve", "read_certificate", "verify",
-           "verify_all"]
+__all__ = ["BadPrime", "CertifyError", "Certificate", "ConductorClaim", "IsogenyClassClaim", "RankClaim", "TorsionClaim",
+           "Verdict", "certify_conductor", "certify_isogeny_class", "certify_rank", "certify_torsion", "curve",
+           "read_certificate", "verify", "verify_all"]
 
 Number = Union[int, Fraction, str]
 CurveSpec = Union[str, Sequence[Number]]
 Path = Union[str, "os.PathLike[str]"]
 
-FORMATS = {"certify-torsion": "torsion", "certify-isogeny-class": "isogeny-class", "certify-conductor": "conductor"}
+FORMATS = {"certify-torsion": "torsion", "certify-isogeny-class": "isogeny-class", "certify-conductor": "conductor",
+           "certify-rank": "rank"}
 
 
 class CertifyError(ValueError):
@@ -103,13 +105,30 @@ class ConductorClaim:
 
 
 @dataclass(frozen=True)
+class RankClaim:
+    """rank_lower <= rank E(Q) <= rank_upper (None: no upper bound proven). ``points`` (x, y) on the curve as
+    given are independent modulo torsion, rank_lower of them; ``selmer_dimensions`` are the dimensions over
+    F_2 of the Selmer groups of the 2-isogeny φ: E → Ē and of its dual, whose sum minus 2 is rank_upper
+    (None without a descent)."""
+    rank_lower: int
+    rank_upper: Union[int, None]
+    points: tuple[tuple[Fraction, Fraction], ...]
+    selmer_dimensions: Union[tuple[int, int], None]
+
+    @property
+    def rank(self) -> Union[int, None]:
+        """The rank of E(Q) when the bounds meet, else None (not determined by the certificate)."""
+        return self.rank_lower if self.rank_lower == self.rank_upper else None
+
+
+@dataclass(frozen=True)
 class Certificate:
     """A certificate as certify writes it: ``document`` is its JSON object (all numbers decimal strings)."""
     document: dict
 
     @property
     def kind(self) -> str:
-        """'torsion', 'isogeny-class' or 'conductor'."""
+        """'torsion', 'isogeny-class', 'conductor' or 'rank'."""
         return FORMATS[self.document["format"]]
 
     @property
@@ -118,9 +137,14 @@ class Certificate:
         return tuple(Fraction(c) for c in self.document["curve"])
 
     @property
-    def claim(self) -> Union[TorsionClaim, IsogenyClassClaim, ConductorClaim]:
+    def claim(self) -> Union[TorsionClaim, IsogenyClassClaim, ConductorClaim, RankClaim]:
         """What the certificate claims, in Python types."""
         claim = self.document["claim"]
+        if self.kind == "rank":
+            upper, dimensions = claim["rank_upper"], claim["selmer_dimensions"]
+            return RankClaim(int(claim["rank_lower"]), None if upper is None else int(upper),
+                             tuple((Fraction(x), Fraction(y)) for x, y in claim["points"]),
+                             None if dimensions is None else (int(dimensions["phi"]), int(dimensions["phi_dual"])))
         if self.kind == "torsion":
             return TorsionClaim(tuple(int(n) for n in claim["invariants"]),
                                 tuple((Fraction(x), Fraction(y)) for x, y in claim["generators"]))
@@ -163,6 +187,12 @@ def certify_isogeny_class(spec: CurveSpec) -> Certificate:
 def certify_conductor(spec: CurveSpec) -> Certificate:
     """The conductor certificate of the curve, already accepted by the verifier."""
     return _certify("conductor", spec)
+
+
+def certify_rank(spec: CurveSpec) -> Certificate:
+    """The rank certificate of the curve (proven bounds for the rank of E(Q), independent points), already
+    accepted by the verifier."""
+    return _certify("rank", spec)
 
 
 def _certify(kind: str, spec: CurveSpec) -> Certificate:

@@ -12,17 +12,23 @@ CLAIMS is a CSV file whose first line is a header, or a JSONL file (one object p
 - ``cyclic_degrees_from_curve`` — the degrees of the cyclic isogenies from E to each member of its
   class, 1 for E itself, as a list (compared as a multiset, so their order does not matter);
 - ``class_members`` — the members of the class, a list of [a1,a2,a3,a4,a6] (or [A,B]) in any models
-  (compared as a set of isomorphism classes, through reduced minimal models).
+  (compared as a set of isomorphism classes, through reduced minimal models);
+- ``conductor`` — the conductor N, a positive integer;
+- ``rank`` — the rank of E(Q): a number (``2``), or bounds ``lo..hi`` (``1..3``; ``1..`` for no upper
+  bound; ``1–3`` and ``≥ 1``, as certify table writes them, are read too). The claim "lo <= rank <= hi"
+  agrees when the certified bounds lie inside it (so a number agrees only when the bounds pin it),
+  disagrees when they exclude it, and is otherwise unknown, with the certified bounds in the report.
 
 For each claimed field the truth is certified — or, with ``--store OUT``, taken from a certificate
 already in a batch store or directory once the verifier accepts it again — and the report gets one
 record: ``row`` (line of CLAIMS), ``label``, ``curve`` ([a1,...,a6]), ``field``, ``claimed``,
 ``certified``, ``verdict`` (``agree``, ``disagree``, ``invalid``: the claim cannot be read, or
-``unknown``: certification failed), ``certificate`` (for a disagreement, the file of the certificate
-that proves the certified value), ``digest`` (that certificate's digest) and ``reason`` (for invalid and
-unknown). In JSONL the values keep their types (numbers, lists, null for absent). Exit status: 0 when
-every field agrees, 1 when any disagrees, 2 when a claim is invalid or undecided, or CLAIMS cannot be
-read or holds no claims.
+``unknown``: certification failed, or the certified rank bounds neither prove nor exclude the claim),
+``certificate`` (for a disagreement or undecided rank bounds, the file of the certificate that proves the
+certified value), ``digest`` (that certificate's digest) and ``reason`` (for invalid and unknown). In
+JSONL the values keep their types (numbers, lists, null for absent). Exit status: 0 when every field
+agrees, 1 when any disagrees, 2 when a claim is invalid or undecided, or CLAIMS cannot be read or holds no
+claims.
 """
 from __future__ import annotations
 
@@ -41,7 +47,7 @@ from certify.curves import Curve, CurveInputError, curve_from_numbers, parse_cur
 from certify.store import StoreReader, file_name
 
 FIELDS = {"torsion_group": "torsion", "curves_in_class": "isogeny-class", "cyclic_degrees_from_curve": "isogeny-class",
-          "class_members": "isogeny-class"}
+          "class_members": "isogeny-class", "conductor": "conductor", "rank": "rank"}
 """Each claimable field and the kind of certificate that decides it."""
 
 COLUMNS = ("row", "label", "curve", "field", "claimed", "certified", "verdict", "certificate", "digest", "reason")
@@ -150,13 +156,52 @@ def minimal_model(curve) -> list:
     return [int(c) for c in Curve(read_curve(curve)).minimal_model()[0].a]
 
 
+def whole_number(value) -> int:
+    """A claimed count: an int, or its decimal text; refuses booleans and non-integral numbers."""
+    if isinstance(value, bool) or (isinstance(value, float) and not value.is_integer()):
+        raise ValueError(f"not a whole number: {value!r}")
+    return int(value)
+
+
+RANK_RANGE = re.compile(r"\s*(?:(\d{1,9})\s*(?:\.\.|–)\s*(\d{1,9})?|(?:≥|>=)\s*(\d{1,9}))\s*")
+"""Rank bounds as text: 'lo..hi', 'lo..' (no upper bound), 'lo–hi' and '≥ lo' (as certify table writes them)."""
+
+
+def rank_bounds(value) -> tuple:
+    """(lo, hi) for a claimed rank: a number n is (n, n), 'lo..hi' is (lo, hi), 'lo..' and '≥ lo' are
+    (lo, None) — no upper bound."""
+    if isinstance(value, str):
+        match = RANK_RANGE.fullmatch(value)
+        if match:
+            lower, upper, at_least = match.groups()
+            bounds = (int(at_least), None) if at_least else (int(lower), None if upper is None else int(upper))
+            if bounds[1] is not None and bounds[1] < bounds[0]:
+                raise ValueError(f"the bounds {value!r} are in the wrong order")
+            return bounds
+    rank = whole_number(value)
+    if rank < 0:
+        raise ValueError("a rank is not negative")
+    return rank, rank
+
+
+def rank_value(bounds: tuple):
+    """Bounds as the report shows them: the number when they meet, else the text 'lo..hi' ('lo..' without
+    an upper bound)."""
+    lower, upper = bounds
+    return lower if lower == upper else f"{lower}..{'' if upper is None else upper}"
+
+
 def normalise(field: str, value):
     """The claimed or certified value in the native form the report shows and compares: the invariant
-    factors of a group, a count, a sorted list of degrees, a sorted list of reduced minimal models."""
-    if field == "curves_in_class":
-        if isinstance(value, bool) or (isinstance(value, float) and not value.is_integer()):
-            raise ValueError(f"not a whole number: {value!r}")
-        return int(value)
+    factors of a group, a count, a sorted list of degrees, a sorted list of reduced minimal models, the
+    conductor, the rank or its bounds (``rank_value``)."""
+    if field in ("curves_in_class", "conductor"):
+        number = whole_number(value)
+        if field == "conductor" and number < 1:
+            raise ValueError("a conductor is a positive integer")
+        return number
+    if field == "rank":
+        return rank_value(rank_bounds(value))
     if field == "torsion_group":
         orders = group_orders(value)
         if any(n < 1 for n in orders):
@@ -175,7 +220,26 @@ def certified_value(field: str, cert: dict):
         return normalise(field, claim["invariants"])
     if field == "curves_in_class":
         return len(claim["curves"])
+    if field == "conductor":
+        return int(claim["conductor"])
+    if field == "rank":
+        upper = claim["rank_upper"]
+        return rank_value((int(claim["rank_lower"]), None if upper is None else int(upper)))
     return normalise(field, claim["degrees"][0] if field == "cyclic_degrees_from_curve" else claim["curves"])
+
+
+def verdict(field: str, claimed, certified) -> str:
+    """'agree' when the certified value proves the claim, 'disagree' when it refutes it; for the rank,
+    whose certificate may prove bounds only, 'unknown' when the certified bounds meet the claimed range
+    without lying inside it."""
+    if field != "rank":
+        return "agree" if certified == claimed else "disagree"
+    (lower, upper), (claimed_lower, claimed_upper) = rank_bounds(certified), rank_bounds(claimed)
+    if claimed_lower <= lower and (claimed_upper is None or (upper is not None and upper <= claimed_upper)):
+        return "agree"
+    if (upper is not None and upper < claimed_lower) or (claimed_upper is not None and claimed_upper < lower):
+        return "disagree"
+    return "unknown"
 
 
 def as_text(value) -> str:
@@ -274,8 +338,8 @@ def run_audit(path: str, output: str | None, form: str, folder: str, workers: in
 
 
 def judged(claims: list, result: dict, folder: str) -> list:
-    """The records of the claims one certificate decides; for a disagreement the certificate is written
-    into ``folder`` and named in the record."""
+    """The records of the claims one certificate decides; for a disagreement, or rank bounds that leave the
+    claim undecided, the certificate is written into ``folder`` and named in the record."""
     task = result["task"]
     if "error" in result:
         return [{**claim, "verdict": "unknown", "reason": result["error"]} for claim in claims]
@@ -283,8 +347,11 @@ def judged(claims: list, result: dict, folder: str) -> list:
     out = []
     for claim in claims:
         certified = certified_value(claim["field"], cert)
-        record = {**claim, "certified": certified, "verdict": "agree" if certified == claim["claimed"] else "disagree"}
-        if record["verdict"] == "disagree":
+        record = {**claim, "certified": certified, "verdict": verdict(claim["field"], claim["claimed"], certified)}
+        if record["verdict"] == "unknown":
+            record["reason"] = (f"the certified bounds {certified} neither prove nor exclude the claimed rank "
+                                f"{claim['claimed']}")
+        if record["verdict"] != "agree":
             record["certificate"] = os.path.join(folder, file_name(task.key, task.kind))
             record["digest"] = result["digest"]
             os.makedirs(folder, exist_ok=True)

@@ -3,7 +3,8 @@
 FILE has one curve per line in the CURVE syntax; blank lines and lines beginning with ``#`` are
 skipped. An optional label follows the curve — after a tab, after two or more spaces, or after the
 closing ``]`` of a coefficient list (with optional punctuation such as ``:`` or ``,``) — and is the
-whole rest of the line. Each curve gets both certificates (or the one ``--only`` names), kept in OUT
+whole rest of the line. Each curve gets a certificate of every kind this installation writes (torsion,
+isogeny class, conductor, rank: ``certify.certificates.certifiers``), or the one ``--only`` names, kept in OUT
 (see ``certify.store``) under the curve's coefficients as given, with the label and the line number
 in the certificate's ``metadata``. A curve given on two lines is certified once and reported with
 both labels. A rerun skips what OUT holds and retries the rest, failures included.
@@ -30,9 +31,6 @@ from certify.certificates import certifiers, stamp, to_json
 from certify.curves import CurveInputError, format_rational, parse_curve
 from certify.store import open_store
 from certify.verifier.digest import digest
-
-KINDS = ("torsion", "isogeny-class")
-
 
 class BatchInputError(Exception):
     """The batch file cannot be read at all."""
@@ -295,7 +293,7 @@ def run_batch(path: str, out: str, workers: int | None = None, only: str | None 
               cluster: str | None = None, timeout: float | None = None) -> int:
     """Certify the table into OUT; returns the exit status (0 all done, 1 some failed, 2 the store could not
     be written, a full disk say, 130 interrupted)."""
-    kinds = [only] if only else [kind for kind in KINDS if kind in certifiers()]
+    kinds = [only] if only else list(certifiers())
     lines = read_batch(path)
     store = open_store(out)
     tasks, failures, labels, first_line = [], [], {}, {}

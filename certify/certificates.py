@@ -94,16 +94,25 @@ def stamp(cert: dict) -> dict:
 
 
 def certifiers() -> dict:
-    """{kind: certify function} for each kind of certificate this installation can write ('torsion', and
-    'isogeny-class' once ``certify.isogeny`` is installed)."""
+    """{kind: certify function} for each kind of certificate this installation can write, in the order
+    that batch, audit and the demo use: 'torsion', 'isogeny-class' (once ``certify.isogeny`` is
+    installed), 'conductor', and 'rank' (once ``certify.rank`` is installed)."""
+    from certify.conductor import certify_conductor
     from certify.torsion import certify_torsion
 
     kinds = {"torsion": certify_torsion}
     try:
         from certify.isogeny.certificate import certify_isogeny_class
     except ImportError:
+        pass
+    else:
+        kinds["isogeny-class"] = certify_isogeny_class
+    kinds["conductor"] = certify_conductor
+    try:
+        from certify.rank.certificate import certify_rank
+    except ImportError:
         return kinds
-    return {**kinds, "isogeny-class": certify_isogeny_class}
+    return {**kinds, "rank": certify_rank}
 
 
 class NotCertifiable(CurveInputError):

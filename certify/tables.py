@@ -6,7 +6,8 @@ of the lines of the batch file (the ``input_line`` of its metadata) — with the
 is one, the curve as a Weierstrass equation, then for each kind of certificate its facts and a column
 with its digest (short in LaTeX and Markdown, full in CSV): E(Q)_tors as Z/n1Z × Z/n2Z ("trivial"
 for the trivial group), the size of the isogeny class and the sorted degrees of the cyclic isogenies
-from the curve to its members, the conductor N. A later kind of certificate adds its facts and its
+from the curve to its members, the conductor N, the rank of E(Q) ("2" when proven, "1–3" for proven
+bounds, "≥ 1" without an upper bound). A later kind of certificate adds its facts and its
 digest column by one entry in KINDS, as the conductor did. Only certificates the verifier accepts are
 tabulated.
 
@@ -40,6 +41,8 @@ class Fact:
     latex_heading: str
     latex_width: int
     """The column's share of the text width, in hundredths."""
+    latex_narrow: int
+    """Its share when more than three kinds are shown: as wide as its longest heading word, no wider."""
     read: Callable[[dict], object]
     text: Callable[[object], str]
     latex: Callable[[object], str]
@@ -49,11 +52,12 @@ class Fact:
 @dataclass(frozen=True)
 class Kind:
     """A kind of certificate as the table shows it: what the caption calls its claims, its facts and the
-    heading of its digest column."""
+    heading of its digest column (in LaTeX ``latex_name``, as narrow as four hex digits or little more)."""
     name: str
     plural: str
     digest_heading: str
     facts: tuple
+    latex_name: str
 
 
 def group_in_words(invariants) -> str:
@@ -74,19 +78,46 @@ def listed(values) -> str:
 
 
 TORSION = Kind("torsion", "torsion subgroups", "torsion certificate", (
-    Fact("E(Q)_tors", "$E(\\mathbb{Q})_{\\mathrm{tors}}$", 15,
+    Fact("E(Q)_tors", "$E(\\mathbb{Q})_{\\mathrm{tors}}$", 15, 10,
          lambda cert: [int(n) for n in cert["claim"]["invariants"]], group_in_words, latex_group,
          (("torsion", group_in_words), ("torsion_invariants", listed))),
-))
+), "torsion")
 ISOGENY_CLASS = Kind("class", "isogeny classes", "class certificate", (
-    Fact("class size", "class size", 6, lambda cert: class_facts(cert)[0], str, str, (("class_size", str),)),
-    Fact("isogeny degrees from E", "isogeny degrees from $E$", 11, lambda cert: class_facts(cert)[1],
+    Fact("class size", "class size", 6, 6, lambda cert: class_facts(cert)[0], str, str, (("class_size", str),)),
+    Fact("isogeny degrees from E", "isogeny degrees from $E$", 11, 8, lambda cert: class_facts(cert)[1],
          lambda d: ", ".join(map(str, d)), lambda d: ", ".join(map(str, d)), (("degrees", listed),)),
-))
+), "class")
 CONDUCTOR = Kind("conductor", "conductors", "conductor certificate", (
-    Fact("conductor N", "conductor $N$", 11, lambda cert: int(cert["claim"]["conductor"]), str, str, (("conductor", str),)),
-))
-KINDS = {"certify-torsion": TORSION, "certify-isogeny-class": ISOGENY_CLASS, "certify-conductor": CONDUCTOR}
+    Fact("conductor N", "conductor $N$", 11, 11, lambda cert: int(cert["claim"]["conductor"]), str, str,
+         (("conductor", str),)),
+), "cond.")
+
+
+def rank_bounds(cert: dict) -> tuple:
+    """(rank_lower, rank_upper or None) of a rank certificate's claim."""
+    claim = cert["claim"]
+    return int(claim["rank_lower"]), None if claim["rank_upper"] is None else int(claim["rank_upper"])
+
+
+def rank_text(bounds: tuple) -> str:
+    """The rank as a table cell: '2' when the bounds meet, '1–3' for bounds, '≥ 1' without an upper bound."""
+    lower, upper = bounds
+    return str(lower) if lower == upper else f"≥ {lower}" if upper is None else f"{lower}–{upper}"
+
+
+def latex_rank(bounds: tuple) -> str:
+    """rank_text in LaTeX: 2, 1--3, $\\geq 1$."""
+    lower, upper = bounds
+    return str(lower) if lower == upper else f"$\\geq {lower}$" if upper is None else f"{lower}--{upper}"
+
+
+RANK = Kind("rank", "ranks", "rank certificate", (
+    Fact("rank", "rank", 5, 5, rank_bounds, rank_text, latex_rank,
+         (("rank", rank_text), ("rank_lower", lambda bounds: str(bounds[0])),
+          ("rank_upper", lambda bounds: "" if bounds[1] is None else str(bounds[1])))),
+), "rank")
+KINDS = {"certify-torsion": TORSION, "certify-isogeny-class": ISOGENY_CLASS, "certify-conductor": CONDUCTOR,
+         "certify-rank": RANK}
 """Certificate format → how the table shows it, in column order."""
 
 
@@ -196,35 +227,39 @@ def digest_width(kind: Kind, digits: int) -> list:
     name heading the column, whichever is wider."""
     length = f"\\certify{kind.name}digest"
     return [f"\\ifdefined{length}\\else\\newlength{{{length}}}\\fi",
-            f"\\settowidth{{{length}}}{{\\texttt{{{'0' * digits}}}}}", f"\\settowidth{{\\certifyword}}{{{kind.name}}}",
+            f"\\settowidth{{{length}}}{{\\texttt{{{'0' * digits}}}}}",
+            f"\\settowidth{{\\certifyword}}{{{kind.latex_name}}}",
             f"\\ifdim\\certifyword>{length}\\setlength{{{length}}}{{\\certifyword}}\\fi"]
 
 
 def latex(rows: list, document: bool, bundles: list = ()) -> str:
     """A longtable for ``\\input`` (or, with ``document``, a whole article that compiles with pdflatex):
     the facts of each kind of certificate, then under "certificate digests" one column per kind, named
-    for it; with more than two kinds the 12 digits of a digest go on three lines of 4."""
+    for it; with more than two kinds the 12 digits of a digest go on three lines of 4, and with more than
+    three the fact columns take their narrow widths and the columns sit closer."""
     kinds = shown_kinds(rows)
     lines_per_digest = 1 if len(kinds) <= 2 else 3
+    narrow = len(kinds) > 3
     labelled = any(row["label"] for row in rows)
     ragged = ">{\\raggedright\\arraybackslash}p"
     facts = [fact for kind in kinds for fact in kind.facts]
-    shares = sum(fact.latex_width for fact in facts) + (9 if labelled else 0)
+    widths = [fact.latex_narrow if narrow else fact.latex_width for fact in facts]
+    shares = sum(widths) + (9 if labelled else 0)
     columns = labelled + 1 + len(facts) + len(kinds)
     curve_width = (f"\\dimexpr\\linewidth*{100 - shares}/100"
                    + "".join(f"-\\certify{kind.name}digest" for kind in kinds)
                    + f"-{2 * (columns - 1)}\\tabcolsep\\relax")
     spec = ([f"{ragged}{{\\dimexpr\\linewidth*9/100\\relax}}"] if labelled else []) + [f"{ragged}{{{curve_width}}}"]
-    spec += [f"{ragged}{{\\dimexpr\\linewidth*{fact.latex_width}/100\\relax}}" for fact in facts]
+    spec += [f"{ragged}{{\\dimexpr\\linewidth*{width}/100\\relax}}" for width in widths]
     spec += [f"{ragged}{{\\certify{kind.name}digest}}" for kind in kinds]
     first_digest = columns - len(kinds) + 1
     head = [" & " * (first_digest - 1) + f"\\multicolumn{{{len(kinds)}}}{{c}}"
             "{\\begin{tabular}{@{}c@{}}certificate\\\\digests\\end{tabular}} \\\\",
             f"\\cmidrule(l){{{first_digest}-{columns}}}",
             " & ".join((["label"] if labelled else []) + ["curve $E$"] + [fact.latex_heading for fact in facts]
-                       + [kind.name for kind in kinds]) + " \\\\"]
+                       + [kind.latex_name for kind in kinds]) + " \\\\"]
     lines = ["% certify table: a longtable (packages " + LATEX_PACKAGES + ")",
-             "\\begingroup", "\\footnotesize", "\\setlength{\\tabcolsep}{3pt}",
+             "\\begingroup", "\\footnotesize", f"\\setlength{{\\tabcolsep}}{{{2 if narrow else 3}pt}}",
              "\\ifdefined\\certifyword\\else\\newlength{\\certifyword}\\fi",
              *(line for kind in kinds for line in digest_width(kind, 12 // lines_per_digest)),
              "\\begin{longtable}{@{}" + "".join(spec) + "@{}}",

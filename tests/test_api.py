@@ -106,3 +106,38 @@ def test_torsion_agrees_with_certified_answers():
         certificate = certify_torsion(curve)
         assert verify(certificate).accepted
         assert my_library_torsion(curve) == list(certificate.claim.invariants), certificate.digest
+
+
+def test_a_rank_certificate_in_python_types(tmp_path):
+    """certify_rank on the congruent-number curves y² = x³ − n²x, n = 1, 5, 34 (ranks 0, 1 and 2 by
+    cypari2's ellrank, which proves them): the bounds contain the rank, the points are independent (a
+    non-zero regulator, cypari2's ellheightmatrix), the Selmer dimensions give the upper bound."""
+    for n in (1, 5, 34):
+        coefficients = [0, 0, 0, -n * n, 0]
+        cert = api.certify_rank(coefficients)
+        assert cert.kind == "rank" and api.verify(cert).accepted
+        claim = cert.claim
+        lower, upper = (int(b) for b in pari.ellrank(pari.ellinit(coefficients))[:2])
+        assert claim.rank_lower <= upper and (claim.rank_upper is None or lower <= claim.rank_upper)
+        assert claim.rank == (claim.rank_lower if claim.rank_lower == claim.rank_upper else None)
+        assert len(claim.points) == claim.rank_lower
+        assert all(isinstance(c, Fraction) for point in claim.points for c in point)
+        if claim.points:
+            heights = pari.ellheightmatrix(pari.ellinit(coefficients), [[str(x), str(y)] for x, y in claim.points])
+            assert pari.matdet(heights) > 0.001
+        if claim.selmer_dimensions is not None:
+            assert claim.rank_upper == sum(claim.selmer_dimensions) - 2
+        else:
+            assert claim.rank_upper is None
+        cert.write(tmp_path / f"{n}.json")
+        assert api.read_certificate(tmp_path / f"{n}.json").claim == claim
+
+
+
+def test_every_name_of_the_api_is_documented_in_the_readme():
+    """The README's "Python API" section names every stable name (api.__all__), the rank's among them."""
+    from pathlib import Path
+
+    readme = (Path(__file__).resolve().parent.parent / "README.md").read_text(encoding="utf-8")
+    section = readme.split("## Python API", 1)[1].split("\n## ", 1)[0]
+    assert [name for name in api.__all__ if f"`{name}" not in section] == []

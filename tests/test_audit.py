@@ -10,6 +10,7 @@ from pathlib import Path
 
 import pytest
 
+from certify.audit import FIELDS, verdict
 from certify.curves import parse_curve
 from certify.pari import pari
 from certify.verifier.digest import digest
@@ -22,11 +23,16 @@ def audit(*args):
 
 
 def reference(field: str, coefficients: list):
-    """The true value of a field by cypari2 (elltors, ellisomat, ellminimalmodel), normalised as the report
-    gives it (JSON values)."""
+    """The true value of a field by cypari2 (elltors, ellisomat, ellminimalmodel, ellglobalred, ellrank),
+    normalised as the report gives it (JSON values); the rank as ellrank's proven bounds (lower, upper)."""
     curve = pari.ellinit([str(c) for c in coefficients])
     if field == "torsion_group":
         return sorted(int(n) for n in pari.elltors(curve)[1])
+    if field == "conductor":
+        return int(pari.ellglobalred(curve)[0])
+    if field == "rank":
+        lower, upper = pari.ellrank(curve)[:2]
+        return int(lower), int(upper)
     members, matrix = pari.ellisomat(curve)
     if field == "curves_in_class":
         return len(members)
@@ -35,19 +41,62 @@ def reference(field: str, coefficients: list):
     return sorted([int(c) for c in pari.ellminimalmodel(pari.ellinit(member[0]))[:5]] for member in members)
 
 
+def bounds(value) -> tuple:
+    """(lower, upper or None) of a rank as the report writes it: 2, '2', '1..3' or '1..'."""
+    if isinstance(value, int) or "." not in value:
+        return int(value), int(value)
+    lower, upper = value.split("..")
+    return int(lower), int(upper) if upper else None
+
+
+def check_rank_record(record: dict) -> None:
+    """A rank record against cypari2's ellrank: the certified bounds contain its proven bounds; 'agree'
+    only when the certified bounds lie inside the claimed ones (so the true rank does), 'disagree' only
+    when they exclude the claimed range (so the claim is false), 'unknown' only when neither holds."""
+    lower, upper = bounds(record["certified"])
+    true_lower, true_upper = reference("rank", [str(c) for c in parse_curve(record["curve"])])
+    assert lower <= true_upper and (upper is None or true_lower <= upper), record
+    claimed_lower, claimed_upper = bounds(record["claimed"])
+    inside = claimed_lower <= lower and (claimed_upper is None or (upper is not None and upper <= claimed_upper))
+    apart = (upper is not None and upper < claimed_lower) or (claimed_upper is not None and claimed_upper < lower)
+    assert record["verdict"] == ("agree" if inside else "disagree" if apart else "unknown"), record
+    if record["verdict"] == "agree":
+        assert claimed_lower <= true_lower and (claimed_upper is None or true_upper <= claimed_upper), record
+    if record["verdict"] == "disagree":
+        assert true_upper < claimed_lower or (claimed_upper is not None and claimed_upper < true_lower), record
+    if record["verdict"] == "unknown":
+        assert "neither prove nor exclude" in record["reason"], record
+
+
+def check_record(record: dict, certified, claimed) -> None:
+    """One record of the demo's audit: the certified value is cypari2's and the verdict follows from it
+    (check_rank_record for the rank)."""
+    if record["field"] == "rank":
+        check_rank_record({**record, "certified": certified, "claimed": claimed})
+        return
+    truth = reference(record["field"], [str(c) for c in parse_curve(record["curve"])])
+    assert certified == truth, record
+    assert (record["verdict"] == "agree") == (claimed == truth), record
+
+
 def test_demo_claims_every_verdict_agrees_with_the_reference_library(tmp_path):
     """The invented program's claims: each certified value is cypari2's, each verdict follows, each
-    disagreement has a certificate the verifier accepts, and the exit status is 1."""
+    disagreement (and each undecided rank) has a certificate the verifier accepts, and the exit status is
+    1 (2 when a rank is left undecided)."""
     run = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "certs"))
-    assert run.returncode == 1, run.stderr
     records = list(csv.DictReader(io.StringIO(run.stdout)))
-    assert records and {r["verdict"] for r in records} == {"agree", "disagree"}
+    verdicts = {r["verdict"] for r in records}
+    assert records and {"agree", "disagree"} <= verdicts <= {"agree", "disagree", "unknown"}
+    assert run.returncode == (2 if "unknown" in verdicts else 1), run.stderr
+    assert {r["field"] for r in records} == set(csv.DictReader(DEMO_CLAIMS.open()).fieldnames) - {"curve", "label"}
     for record in records:
-        truth = json.dumps(reference(record["field"], [str(c) for c in parse_curve(record["curve"])]),
-                           separators=(",", ":"))
-        assert record["certified"] == truth, record
-        assert (record["verdict"] == "agree") == (record["claimed"] == truth), record
-        if record["verdict"] == "disagree":
+        lists = record["field"] not in ("rank", "conductor", "curves_in_class")
+        certified = json.loads(record["certified"]) if lists else record["certified"]
+        claimed = json.loads(record["claimed"]) if lists else record["claimed"]
+        if record["field"] in ("conductor", "curves_in_class"):
+            certified, claimed = int(certified), int(claimed)
+        check_record(record, certified, claimed)
+        if record["verdict"] != "agree":
             cert = json.loads(Path(record["certificate"]).read_text())
             assert digest(cert) == record["digest"]
             verdict = subprocess.run([sys.executable, "-m", "certify.verifier", "--jsonl", record["certificate"]],
@@ -67,14 +116,18 @@ def test_jsonl_claims_and_report_match_csv_with_native_types(tmp_path):
                               for row in rows))
     as_csv = list(csv.DictReader(io.StringIO(audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "a")).stdout)))
     run = audit(str(claims), "-o", str(tmp_path / "report.jsonl"), "--certificates", str(tmp_path / "b"))
-    assert run.returncode == 1
     as_jsonl = [json.loads(line) for line in (tmp_path / "report.jsonl").read_text().splitlines()]
+    assert run.returncode == (2 if any(r["verdict"] == "unknown" for r in as_jsonl) else 1)
     assert [(r["row"] + 1, r["field"], r["verdict"]) for r in as_jsonl] == \
         [(int(r["row"]), r["field"], r["verdict"]) for r in as_csv]  # the CSV's line 1 is its header
     for record in as_jsonl:
-        assert isinstance(record["row"], int) and record["reason"] is None
-        truth = reference(record["field"], [str(c) for c in parse_curve(record["curve"])])
-        assert record["certified"] == truth, record  # a list, or the class size as a number
+        assert isinstance(record["row"], int) and (record["reason"] is None) == (record["verdict"] != "unknown")
+        if record["field"] == "rank":  # a number when the bounds meet, else the text 'lo..hi'
+            assert isinstance(record["certified"], int if bounds(record["certified"])[0] ==
+                              bounds(record["certified"])[1] else str)
+        elif record["field"] in ("conductor", "curves_in_class"):
+            assert isinstance(record["certified"], int)
+        check_record(record, record["certified"], record["claimed"])  # lists as lists, counts as numbers
         assert (record["certificate"] is None) == (record["verdict"] == "agree")
 
 
@@ -159,7 +212,9 @@ def test_store_reuses_batch_certificates_once_verified_again(tmp_path, store_nam
                           capture_output=True).returncode == 0
     fresh = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "a"))
     reused = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "b"), "--store", str(store))
-    assert reused.returncode == 1 and "14 certificates taken from" in reused.stderr and "0 made" in reused.stderr
+    wanted = sum(len({FIELDS[field] for field, value in row.items() if field in FIELDS and value}) for row in rows)
+    assert reused.returncode == fresh.returncode and f"{wanted} certificates taken from" in reused.stderr
+    assert "0 made" in reused.stderr
     strip = lambda text: [{k: v for k, v in r.items() if k != "certificate"} for r in csv.DictReader(io.StringIO(text))]
     assert strip(reused.stdout) == strip(fresh.stdout)
     if store_name == "out":
@@ -168,10 +223,59 @@ def test_store_reuses_batch_certificates_once_verified_again(tmp_path, store_nam
         cert["claim"]["invariants"] = ["2"]
         victim.write_text(json.dumps(cert))
         again = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "c"), "--store", str(store))
-        assert "13 certificates taken from" in again.stderr and "1 made" in again.stderr
+        assert f"{wanted - 1} certificates taken from" in again.stderr and "1 made" in again.stderr
         assert strip(again.stdout) == strip(fresh.stdout)
 
 
 def test_a_missing_store_exits_2_with_one_line(tmp_path):
     run = audit(str(DEMO_CLAIMS), "--store", str(tmp_path / "none.sqlite"))
     assert run.returncode == 2 and len(run.stderr.strip().splitlines()) == 1 and "cannot use" in run.stderr
+
+
+@pytest.mark.parametrize("certified, claimed, expected", [
+    ((2, 2), "2", "agree"), ((2, 2), "1..3", "agree"), ((2, 2), "2..", "agree"), ((2, 2), "3", "disagree"),
+    ((2, 2), "0..1", "disagree"), ((1, 3), "1..3", "agree"), ((1, 3), "0..", "agree"), ((1, 3), "2", "unknown"),
+    ((1, 3), "0..1", "unknown"), ((1, 3), "4..", "disagree"), ((1, 3), "0", "disagree"), ((1, None), "1", "unknown"),
+    ((1, None), "0", "disagree"), ((1, None), "≥ 1", "agree"), ((1, None), "1–5", "unknown"), ((0, 0), "0", "agree"),
+])
+def test_rank_verdicts_follow_from_the_bounds(certified, claimed, expected):
+    """The claim 'lo <= rank <= hi' is proven when the certified bounds lie inside it, refuted when the two
+    ranges are disjoint, and undecided otherwise (interval logic; the end-to-end cases against cypari2 are
+    in test_rank_and_conductor_claims_against_the_reference_library)."""
+    shown = certified[0] if certified[0] == certified[1] else f"{certified[0]}..{certified[1] or ''}"
+    assert verdict("rank", claimed, shown) == expected
+
+
+@pytest.mark.parametrize("claimed", ["-1", "3..1", "two", "1.5", "[1]", "1..2..3"])
+def test_unreadable_rank_claims_are_invalid(tmp_path, claimed):
+    claims = tmp_path / "c.csv"
+    claims.write_text(f"curve,rank\n\"[0,0,0,-1,0]\",{claimed}\n")
+    run = audit(str(claims), "--certificates", str(tmp_path / "certs"))
+    assert run.returncode == 2, run.stderr
+    (record,) = csv.DictReader(io.StringIO(run.stdout))
+    assert record["verdict"] == "invalid" and record["reason"].startswith("cannot read the claim"), record
+
+
+def test_rank_and_conductor_claims_against_the_reference_library(tmp_path):
+    """Right and wrong conductors (truth: cypari2's ellglobalred) and ranks claimed as numbers and ranges on
+    curves of rank 0, 1 and 2 (the congruent-number curves y² = x³ − n²x for n = 1, 5, 34; a curve without a
+    rational point of order 2, y² + y = x³ − x): every verdict checked against cypari2's ellrank
+    (check_rank_record)."""
+    rows = [("[0,0,0,-1,0]", "32", ["0", "1", "0..2"]), ("[0,0,0,-25,0]", "800", ["1", "0", "2..3", "1.."]),
+            ("[0,0,0,-1156,0]", "18496", ["2", "1..2", "3"]), ("[0,0,1,-1,0]", "36", ["1", "0", "1..", "0..5"])]
+    claims = tmp_path / "c.csv"
+    claims.write_text("curve,conductor,rank\n" + "".join(f'"{curve}",{conductor},{rank}\n'
+                                                         for curve, conductor, ranks in rows for rank in ranks))
+    run = audit(str(claims), "--certificates", str(tmp_path / "certs"))
+    records = list(csv.DictReader(io.StringIO(run.stdout)))
+    assert len(records) == 2 * sum(len(ranks) for _, _, ranks in rows)
+    for record in records:
+        if record["field"] == "conductor":
+            truth = reference("conductor", [str(c) for c in parse_curve(record["curve"])])
+            assert int(record["certified"]) == truth
+            assert record["verdict"] == ("agree" if int(record["claimed"]) == truth else "disagree"), record
+        else:
+            check_rank_record(record)
+    verdicts = {record["verdict"] for record in records}
+    assert "disagree" in verdicts and run.returncode == (2 if "unknown" in verdicts else 1)
+    assert {r["verdict"] for r in records if r["curve"] == "[0,0,1,-1,0]" and r["field"] == "conductor"} == {"disagree"}

@@ -43,29 +43,76 @@ def store_rows(path):
         return connection.execute("SELECT curve, kind, label, document, digest FROM certificates").fetchall()
 
 
+def kinds() -> list:
+    """The default set of certify batch: every kind this installation writes."""
+    from certify.certificates import certifiers
+
+    return list(certifiers())
+
+
+def pari_rank_bounds(a) -> tuple:
+    """cypari2's ellrank (reference library): its proven lower and upper bounds for the rank."""
+    lower, upper = pari.ellrank(pari.ellinit(a))[:2]
+    return int(lower), int(upper)
+
+
+def check_against_reference(kind: str, a, cert: dict) -> None:
+    """The certificate's claim against cypari2 as reference library: the torsion order (elltors), the
+    conductor (ellglobalred), the rank bounds containing ellrank's proven ones."""
+    if kind == "torsion":
+        order = 1
+        for n in cert["claim"]["invariants"]:
+            order *= int(n)
+        assert order == int(pari.elltors(pari.ellinit(a))[0])
+    elif kind == "conductor":
+        assert int(cert["claim"]["conductor"]) == int(pari.ellglobalred(pari.ellinit(a))[0])
+    elif kind == "rank":
+        lower, upper = pari_rank_bounds(a)
+        claimed_upper = cert["claim"]["rank_upper"]
+        assert int(cert["claim"]["rank_lower"]) <= upper and (claimed_upper is None or lower <= int(claimed_upper))
+
+
 def test_directory_store_certifies_verifies_and_resumes(tmp_path):
-    """Twelve curves of Cremona's table, both kinds: 24 accepted files whose torsion orders agree with
-    cypari2's elltors; a rerun writes nothing; a deleted file is remade, alone."""
-    curves = cremona_curves(12)
+    """Twelve curves of Cremona's table, every kind of the default set: accepted files whose claims agree
+    with cypari2 (check_against_reference); a rerun writes nothing; a deleted file is remade, alone."""
+    curves, default = cremona_curves(12), kinds()
+    assert default[:3] == ["torsion", "isogeny-class", "conductor"]
+    total = 12 * len(default)
     source, out = batch_file(tmp_path, curves), tmp_path / "out"
     run = certify("batch", source, "-o", str(out), "--workers", "2")
     assert run.returncode == 0, run.stderr
     files = sorted(out.glob("*.json"))
-    assert len(files) == 24 and not list(out.glob(".certify-*"))
+    assert len(files) == total and not list(out.glob(".certify-*"))
     code, rows = verified(str(out), "--workers", "2")
-    assert code == 0 and len(rows) == 24 and all(row["accepted"] for row in rows)
+    assert code == 0 and len(rows) == total and all(row["accepted"] for row in rows)
     for a, label in curves:
-        cert = json.loads((out / (",".join(map(str, a)) + ".torsion.json")).read_text())
-        assert cert["metadata"]["label"] == label
-        order = 1
-        for n in cert["claim"]["invariants"]:
-            order *= int(n)
-        assert order == int(pari.elltors(pari.ellinit(a))[0])  # cypari2 as reference library
+        for kind in default:
+            cert = json.loads((out / (",".join(map(str, a)) + f".{kind}.json")).read_text())
+            assert cert["metadata"]["label"] == label
+            check_against_reference(kind, a, cert)
     again = certify("batch", source, "-o", str(out))
-    assert again.returncode == 0 and "0 certificates written, 24 already" in again.stderr
+    assert again.returncode == 0 and f"0 certificates written, {total} already" in again.stderr
     files[3].unlink()
     again = certify("batch", source, "-o", str(out), "--workers", "1")
-    assert "1 certificates written, 23 already" in again.stderr and files[3].exists()
+    assert f"1 certificates written, {total - 1} already" in again.stderr and files[3].exists()
+
+
+@pytest.mark.parametrize("kind", ["conductor", "rank"])
+def test_only_one_kind_writes_that_kind_alone(tmp_path, kind):
+    """Only conductor, only rank (run_batch, as ``certify batch --only KIND`` calls it): one certificate per
+    curve, of that kind alone, each accepted and agreeing with cypari2 (ellglobalred, ellrank); curves with
+    and without a rational point of order 2."""
+    from certify.batch import run_batch
+
+    curves = cremona_curves(8, start=500)
+    store = str(tmp_path / "table.sqlite")
+    assert run_batch(batch_file(tmp_path, curves), store, workers=2, only=kind) == 0
+    rows = store_rows(store)
+    assert {row[1] for row in rows} == {kind} and len(rows) == len(curves)
+    for curve, _, _, document, _ in rows:
+        check_against_reference(kind, json.loads(curve), json.loads(document))
+    code, verdicts = verified(store)
+    assert code == 0 and len(verdicts) == len(curves)
 
 
 def test_sqlite_store_rows_labels_failures_and_retries(tmp_path):
@@ -158,21 +205,21 @@ def test_cluster_run_on_a_local_dask_cluster(tmp_path):
     assert run.returncode == 0, run.stderr
     assert certify("batch", source, "-o", str(tmp_path / "local.sqlite"), "--workers", "2").returncode == 0
     digests = lambda name: sorted((c, k, d) for c, k, _, _, d in store_rows(str(tmp_path / name)))
-    assert digests("cluster.sqlite") == digests("local.sqlite") and len(digests("local.sqlite")) == 12
+    assert digests("cluster.sqlite") == digests("local.sqlite") and len(digests("local.sqlite")) == 6 * len(kinds())
     code, rows = verified(str(tmp_path / "cluster.sqlite"), "--workers", "2")
-    assert code == 0 and len(rows) == 12
+    assert code == 0 and len(rows) == 6 * len(kinds())
 
 
 @pytest.mark.table
 def test_whole_table_into_a_store_verifies_and_matches_cremonas_classes(tmp_path):
-    """All 5,113 curves of conductor < 1000, both kinds, into SQLite: every certificate accepted, and each
-    class size is the number of curves Cremona's table lists in that class (fixture: conductor and
-    class index)."""
+    """All 5,113 curves of conductor < 1000, every kind of the default set, into SQLite: every certificate
+    accepted, each class size is the number of curves Cremona's table lists in that class, and each
+    conductor is the one of its row (fixture: conductor and class index)."""
     curves = cremona_curves(10 ** 6)
     store = str(tmp_path / "table.sqlite")
     assert certify("batch", batch_file(tmp_path, curves), "-o", store).returncode == 0
     code, rows = verified(store, "--workers", "2")
-    assert code == 0 and len(rows) == 2 * len(curves)
+    assert code == 0 and len(rows) == len(kinds()) * len(curves)
     sizes = {}
     for _, label in curves:
         conductor_class = label.rsplit("-", 1)[0]
@@ -180,6 +227,8 @@ def test_whole_table_into_a_store_verifies_and_matches_cremonas_classes(tmp_path
     for curve, kind, label, document, _ in store_rows(store):
         if kind == "isogeny-class":
             assert len(json.loads(document)["claim"]["curves"]) == sizes[label.rsplit("-", 1)[0]], curve
+        if kind == "conductor":
+            assert json.loads(document)["claim"]["conductor"] == label.split(".")[0], curve
 
 
 @pytest.mark.parametrize("line, parts", [

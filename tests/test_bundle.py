@@ -92,3 +92,33 @@ def test_a_manifest_that_does_not_match_makes_the_bundle_unreadable(bundle, dama
     path.write_text(json.dumps(document))
     code, rows = verdicts(path)
     assert code == 2 and len(rows) == 1 and rows[0]["reason"].startswith("unreadable")
+
+
+def test_every_kind_of_certificate_goes_into_a_bundle(tmp_path):
+    """A bundle of one certificate of each kind of the default set for y² = x³ − 25x (rank 1 by cypari2's
+    ellrank, conductor 800 by its ellglobalred): each member accepted under its own claim, in the manifest
+    in the verifier's wording, and the bundle's report opens with a row per member."""
+    from certify.certificates import certifiers, certify_checked
+    from certify.pari import pari
+
+    curve = pari.ellinit([0, 0, 0, -25, 0])
+    paths = []
+    for kind in certifiers():
+        cert = certify_checked(kind, parse_curve("[0,0,0,-25,0]"))
+        if kind == "rank":
+            assert int(cert["claim"]["rank_lower"]) <= int(pari.ellrank(curve)[1])
+        if kind == "conductor":
+            assert int(cert["claim"]["conductor"]) == int(pari.ellglobalred(curve)[0])
+        paths.append(tmp_path / f"{kind}.json")
+        paths[-1].write_text(to_json(cert))
+    assert {"conductor", "rank"} <= set(certifiers())
+    run = certify("bundle", *map(str, paths), "-o", str(tmp_path / "all.json"))
+    assert run.returncode == 0, run.stderr
+    document = json.loads((tmp_path / "all.json").read_text())
+    originals = [json.loads(path.read_text()) for path in paths]
+    assert [entry["format"] for entry in document["manifest"]["members"]] == [c["format"] for c in originals]
+    assert [entry["claim"] for entry in document["manifest"]["members"]] == [describe_claim(c) for c in originals]
+    code, rows = verdicts(tmp_path / "all.json")
+    assert code == 0 and len(rows) == len(paths) and all(row["accepted"] for row in rows)
+    report = certify("verify", str(tmp_path / "all.json")).stdout
+    assert sum(line.startswith("  accepted  ") for line in report.splitlines()) == len(paths)

@@ -222,6 +222,62 @@ def test_latex_with_three_kinds_of_certificate_stays_inside_the_text_width(three
     assert "Overfull" not in log
 
 
+RANK_CURVES = ["[0,0,0,-25,0]", "[0,0,0,-1156,0]", "[0,0,1,-1,0]"]
+"""y² = x³ − n²x for n = 5 and 34 (congruent-number curves of rank 1 and 2), and y² + y = x³ − x (rank 1,
+no rational point of order 2); ranks by cypari2's ellrank."""
+
+
+@pytest.fixture(scope="module")
+def rank_certificates(tmp_path_factory):
+    """A conductor and a rank certificate of each curve of CURVES and RANK_CURVES, each checked by the
+    verifier as certify writes it (certify_checked)."""
+    from certify.certificates import certify_checked
+
+    folder = tmp_path_factory.mktemp("rank")
+    paths = []
+    for i, curve in enumerate(CURVES + RANK_CURVES):
+        for kind in ("conductor", "rank"):
+            paths.append(str(folder / f"c{i}.{kind}.json"))
+            Path(paths[-1]).write_text(to_json(certify_checked(kind, parse_curve(curve))))
+    return paths
+
+
+@pytest.mark.parametrize("bounds, text, latex", [((2, 2), "2", "2"), ((1, None), "≥ 1", "$\\geq 1$"),
+                                                 ((1, 3), "1–3", "1--3"), ((0, 0), "0", "0")])
+def test_rank_cells_are_the_number_or_the_bounds(bounds, text, latex):
+    """The three forms of a rank cell: proven, bounded above and below, bounded below only."""
+    from certify.tables import latex_rank, rank_text
+
+    assert (rank_text(bounds), latex_rank(bounds)) == (text, latex)
+
+
+def test_the_rank_column_holds_the_certified_bounds(rank_certificates):
+    """One row per curve with its rank cell and digest column; the bounds contain cypari2's proven rank
+    (ellrank), the CSV's rank_lower and rank_upper are the claim's, and a curve without a descent reads
+    '≥ n'."""
+    rows = list(csv.DictReader(io.StringIO(table(*rank_certificates, "--format", "csv").stdout)))
+    assert len(rows) == len(CURVES + RANK_CURVES)
+    for row in rows:
+        lower, upper = (int(b) for b in pari.ellrank(pari.ellinit([str(c) for c in parse_curve(row["coefficients"])]))[:2])
+        claimed_lower = int(row["rank_lower"])
+        claimed_upper = int(row["rank_upper"]) if row["rank_upper"] else None
+        assert claimed_lower <= upper and (claimed_upper is None or lower <= claimed_upper), row
+        expected = (str(claimed_lower) if claimed_lower == claimed_upper else f"≥ {claimed_lower}"
+                    if claimed_upper is None else f"{claimed_lower}–{claimed_upper}")
+        assert row["rank"] == expected and row["rank_digest"].startswith("sha256:") and row["conductor_digest"]
+        assert row["torsion_digest"] == ""
+    markdown = table(*rank_certificates, "--format", "markdown").stdout.splitlines()
+    assert markdown[0].endswith("| conductor N | conductor certificate | rank | rank certificate |")
+    assert [line.split(" | ")[-2] for line in markdown[2:]] == [row["rank"] for row in rows]
+
+
+@PDFLATEX
+def test_latex_with_four_kinds_of_certificate_stays_inside_the_text_width(three_kinds, rank_certificates, tmp_path):
+    log, _ = compile_latex(tmp_path, table(*three_kinds, *rank_certificates[1::2], "--format", "latex",
+                                           "--document").stdout)
+    assert "Overfull" not in log
+
+
 def test_a_rejected_certificate_is_not_tabulated(certificates, tmp_path):
     first = certificates[0][1]
     bad = dict(first, claim={"invariants": ["8"], "generators": [first["claim"]["generators"][1]]})
