@@ -275,10 +275,11 @@ def exponential_integral(x: Fraction, bits: int) -> Interval:
     x_low, x_high = _bracket(x, scale_bits)
     lower = upper = 0
     power_low, power_high, k = one, one, 0      # x^k/k! bounded below and above
+    twice_x = -(-2 * x.numerator // x.denominator)
     while True:
         k += 1
         power_low, power_high = power_low * x_low // (one * k), -(-power_high * x_high // (one * k))
-        if k + 1 >= 2 * x and power_high <= 1:
+        if k + 1 >= twice_x and power_high <= 1:
             break
         if k % 2:
             lower, upper = lower + power_low // k, upper - (-power_high // k)
