@@ -349,8 +349,10 @@ def judged(claims: list, result: dict, folder: str) -> list:
         certified = certified_value(claim["field"], cert)
         record = {**claim, "certified": certified, "verdict": verdict(claim["field"], claim["claimed"], certified)}
         if record["verdict"] == "unknown":
-            record["reason"] = (f"the certified bounds {certified} neither prove nor exclude the claimed rank "
-                                f"{claim['claimed']}")
+            lower, upper = rank_bounds(certified)
+            proven = f"rank ≥ {lower}" if upper is None else f"{lower} ≤ rank ≤ {upper}"
+            record["reason"] = (f"the certificate proves {proven} only, which neither proves nor excludes the "
+                                f"claimed rank {claim['claimed']}")
         if record["verdict"] != "agree":
             record["certificate"] = os.path.join(folder, file_name(task.key, task.kind))
             record["digest"] = result["digest"]

@@ -65,7 +65,7 @@ def check_rank_record(record: dict) -> None:
     if record["verdict"] == "disagree":
         assert true_upper < claimed_lower or (claimed_upper is not None and claimed_upper < true_lower), record
     if record["verdict"] == "unknown":
-        assert "neither prove nor exclude" in record["reason"], record
+        assert "neither proves nor excludes" in record["reason"], record
 
 
 def check_record(record: dict, certified, claimed) -> None:
@@ -197,7 +197,8 @@ def test_torsion_is_compared_as_a_group(tmp_path, curve, claims):
 
 def test_progress_is_reported_as_in_batch(tmp_path):
     run = audit(str(DEMO_CLAIMS), "--certificates", str(tmp_path / "certs"))
-    assert "audit: 7/7 curves" in run.stderr and "curves/s" in run.stderr
+    rows = len(list(csv.DictReader(DEMO_CLAIMS.open())))
+    assert f"audit: {rows}/{rows} curves" in run.stderr and "curves/s" in run.stderr
 
 
 @pytest.mark.parametrize("store_name", ["out", "out.sqlite"])

@@ -1,10 +1,10 @@
 """``certify demo [--out DIR]``: the author's workflow on the curves of an invented paper appendix.
 
-For each curve of ``appendix.txt`` it writes the torsion certificate (and the isogeny-class
-certificate, where the isogeny certifier is installed), verifies every file back from disk, and
-writes the bundle ``appendix.json`` and the tables ``appendix-table.tex`` (a LaTeX tabular, for
-``\\input``) and ``appendix-table.md``. ``certify demo --out certificates-demo`` regenerates the
-demo folder of the repository.
+For each curve of ``appendix.txt`` it writes a certificate of every kind this installation can write
+(``certify.certificates.certifiers``: torsion, isogeny class, conductor, rank), verifies every file back
+from disk, and writes the bundle ``appendix.json`` and the tables ``appendix-table.tex`` (a LaTeX
+longtable, for ``\\input``) and ``appendix-table.md``. ``certify demo --out certificates-demo``
+regenerates the demo folder of the repository.
 """
 from __future__ import annotations
 
