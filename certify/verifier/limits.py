@@ -130,8 +130,9 @@ Euler test at a large p; about a tenth of a millisecond per unit. Charged before
 # --- analytic rank witnesses (certify/verifier/lseries.py, certify/verifier/intervals.py) ---
 
 MAX_TRUNCATION = 12_000
-"""Largest truncation point M of the L-series: a_p is counted at every prime up to M (conductors up to
-about 10⁷ need no more for 60 bits)."""
+"""Largest truncation point M of the L-series: a_p is counted at every prime up to M. At 32 bits and the
+test point 6/5, a conductor of 500,000 needs M ≈ 3,650, one of 10⁶ M = 5,239 and one of 3·10⁶ M = 9,256
+(MAX_ANALYTIC_COUNT_WORK stops at M ≈ 9,300)."""
 
 MAX_PRECISION_BITS = 128
 """Largest claimed precision b (the tails must be below 2^−b; the series are summed with b + 2·bits(M) + 10
@@ -139,7 +140,7 @@ bits). L-values of rank 0 and 1 curves are proven non-zero with 30 to 60 bits.""
 
 MAX_ANALYTIC_SERIES_WORK = 400_000
 """Largest M × b: the series for L′(E, 1) takes one exponential integral per n ≤ M, each a series of about
-b terms; about two seconds at the limit."""
+b terms; one to two seconds at the limit."""
 
 MAX_ANALYTIC_COUNT_WORK = 5_000_000
 """Budget for the point counts of an analytic witness, in residue evaluations: Σ p over the primes p ≤ M,
