@@ -376,7 +376,7 @@ def test_limits_admit_genuine_witnesses_of_large_conductor():
     assert entry is not None and check_analytic_witness(exact(a), entry, "evidence.analytic") == 1
 
 
-SETTINGS = settings(max_examples=300, deadline=None, suppress_health_check=list(HealthCheck), derandomize=True)
+SETTINGS = settings(max_examples=500, deadline=None, suppress_health_check=list(HealthCheck), derandomize=True)
 MUTATIONS = ["order", "root_number", "truncation", "precision_bits", "test_point", "minimal_model",
              "factorisation", "pocklington", "delete", "type", "swap curve"]
 VALUES = ["0", "1", "2", "-1", "3", "7", "31", "32", "33", "100", "6/5", "7/5", "3/2", "2", "12/10", "1.5", "",
