@@ -157,18 +157,22 @@ def derivative_tail_bound(rate: Interval, truncation: int, bits: int):
 
 
 def check_truncation(conductor: int, truncation: int, bits: int, test_point: Fraction) -> None:
-    """The truncation point M suffices for the claimed precision b: the tail of the slowest series,
-    S(c/A), and the tail of the series for L′(E, 1) are at most 2^−b (they bound the tails of S(c), S(cA)
-    too, which fall faster)."""
+    """The truncation point M suffices for the claimed precision b: the tails of S(c/A), S(c), S(cA) and of
+    the series for L′(E, 1), bounded at the working precision, are at most 2^−b."""
     work = working_bits(truncation, bits)
-    rates = decay_rates(conductor, test_point, work)
-    limit = Fraction(1, 1 << bits)
-    for name, tail in (("S(c/A)", tail_bound(rates["c/A"], truncation, work)),
-                       ("L'(E,1)", derivative_tail_bound(rates["c"], truncation, work))):
-        if tail is None or tail > limit:
+    for name, tail in tails(conductor, truncation, work, test_point).items():
+        if tail is None or tail > Fraction(1, 1 << bits):
             raise Rejection("truncation", f"the tail of {name} beyond the truncation point exceeds 2^-b",
                             truncation=truncation, precision_bits=bits, conductor=conductor,
                             tail=None if tail is None else float(tail))
+
+
+def tails(conductor: int, truncation: int, work: int, test_point: Fraction) -> dict:
+    """The tail bounds of the four series at the working precision, by name (None where none is finite)."""
+    rates = decay_rates(conductor, test_point, work)
+    bounds = {f"S({name})": tail_bound(rates[name], truncation, work) for name in ("c/A", "c", "cA")}
+    bounds["L'(E,1)"] = derivative_tail_bound(rates["c"], truncation, work)
+    return bounds
 
 
 # --- the coefficients ---
@@ -278,12 +282,15 @@ def analytic_intervals(coefficients: list, conductor: int, order: int, bits: int
     truncation = len(coefficients) - 1
     work = working_bits(truncation, bits)
     rates = decay_rates(conductor, test_point, work)
-    sums = {name: with_tail(partial_sum(coefficients, rates[name], work), tail_bound(rates[name], truncation, work))
+    bounds = tails(conductor, truncation, work, test_point)
+    if None in bounds.values():
+        raise Rejection("truncation", "a tail has no finite bound at this precision", truncation=truncation,
+                        precision_bits=bits)
+    sums = {name: with_tail(partial_sum(coefficients, rates[name], work), bounds[f"S({name})"])
             for name in (("c/A", "cA") if order == 0 else ("c/A", "cA", "c"))}
     if order == 0:
         return sums["c/A"] - sums["cA"], sums["c/A"] + sums["cA"]
-    derivative = with_tail(derivative_sum(coefficients, rates["c"], work),
-                           derivative_tail_bound(rates["c"], truncation, work))
+    derivative = with_tail(derivative_sum(coefficients, rates["c"], work), bounds["L'(E,1)"])
     return sums["c/A"] + sums["cA"] - 2 * sums["c"], 2 * derivative
 
 
