@@ -131,7 +131,8 @@ def parser() -> argparse.ArgumentParser:
     commands = top.add_subparsers(dest="command", required=True)
     for name, about in (("torsion", "certify the rational torsion subgroup"),
                         ("isogeny-class", "certify the rational isogeny class"),
-                        ("conductor", "certify the conductor, reduction types and Tamagawa numbers")):
+                        ("conductor", "certify the conductor, reduction types and Tamagawa numbers"),
+                        ("rank", "certify bounds on the rank of E(Q): independent points, and a 2-isogeny descent")):
         command = commands.add_parser(name, help=about)
         command.add_argument("curve", metavar="CURVE")
         command.add_argument("-o", "--output", metavar="FILE", help="write the certificate here (default: stdout)")
@@ -186,7 +187,7 @@ def main(argv=None) -> int:
 
 def run_command(args) -> int:
     """Run the parsed subcommand; its exit status."""
-    if args.command in ("torsion", "isogeny-class", "conductor"):
+    if args.command in ("torsion", "isogeny-class", "conductor", "rank"):
         return certify_command(args.command, args.curve, args.output)
     if args.command == "table":
         return table_command(args.sources, args.form, args.document, args.output)

@@ -1,0 +1,82 @@
+"""The rank certifier: rank_lower ≤ rank E(Q) ≤ rank_upper, with independent points for the lower bound
+and, on curves with a rational 2-torsion point, a descent via 2-isogeny for the upper bound.
+
+Order of work: points of small height on the reduced minimal model (PARI's ellratpoints); for each
+rational 2-torsion point a descent (``certify.rank.descent``), whose quartic searches may find more
+points; the best descent kept (least bound, then shortest); a maximal independent set of the points
+chosen by canonical heights; while it is smaller than the bound (or there is no bound), wider searches
+on the curve and on the quartics of the local generators; the set proven independent by reduction
+characters (``certify.rank.points``). A time budget bounds the descents and the wider searches: past
+it, what is claimed is what is proven so far, and an unfinished descent claims no bound at all.
+"""
+from __future__ import annotations
+
+import signal
+import time
+
+from certify.curves import Curve, format_rational, inverse_change
+from certify.pari import pari
+from certify.rank.descent import WIDER_QUARTIC_HEIGHT, descend, descent_models, generator_points
+from certify.rank.points import SEARCH_HEIGHT, WIDER_HEIGHTS, independent_subset, prove_independent, search
+from certify.verifier import theorems
+from certify.verifier.curves import change_point
+from certify.verifier.rank import FORMAT, RELIES_ON_DESCENT, RELIES_ON_POINTS
+
+DEFAULT_SECONDS = 60.0
+"""Time budget of one rank certificate when none is given."""
+
+ALARM_SHARE = 0.75
+"""Share of a pending SIGALRM timer (a batch's --timeout) the budget may use: the rest is left for writing
+and verifying the certificate before the alarm ends the attempt."""
+
+
+def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
+    """The rank certificate of the curve with coefficients ``a`` (five Fractions); ``given`` are the
+    coefficients as typed (their canonical forms when not given); ``seconds`` bounds the descents and
+    the searches, and so does what is left of a pending SIGALRM timer (``ALARM_SHARE`` of it)."""
+    pending = signal.getitimer(signal.ITIMER_REAL)[0]
+    deadline = time.monotonic() + (min(seconds, ALARM_SHARE * pending) if pending > 0 else seconds)
+    reduced, change = Curve(a).minimal_model()
+    model = tuple(int(c) for c in reduced.a)
+    curve = pari.ellinit(list(model))
+    points = search(curve, SEARCH_HEIGHT)
+    descents = []
+    for descent_model in descent_models(model):
+        if time.monotonic() > deadline:
+            break
+        descent = descend(change, descent_model, points, deadline)
+        if descent is not None:
+            points += descent.new_points
+            descents.append(descent)
+    best = min(descents, key=lambda d: (d.bound, d.size), default=None)
+    independent = independent_subset(curve, points)
+    wider = WIDER_HEIGHTS if best is not None else WIDER_HEIGHTS[:1]
+    for i, height in enumerate(wider):
+        if (best is not None and len(independent) >= best.bound) or time.monotonic() > deadline:
+            break
+        points += search(curve, height)
+        if best is not None and i == 0:
+            points += generator_points(best, WIDER_QUARTIC_HEIGHT)
+        independent = independent_subset(curve, points)
+    proven, independence = prove_independent(model, independent)
+    if best is not None and best.bound < len(proven):
+        raise ArithmeticError("the descent bound is below the number of independent points: a certifier bug")
+    back = inverse_change(change)
+    return {
+        "format": FORMAT,
+        "version": "1",
+        "curve": list(given) if given is not None else [format_rational(c) for c in a],
+        "claim": {
+            "rank_lower": str(len(proven)),
+            "rank_upper": None if best is None else str(best.bound),
+            "points": [[format_rational(v) for v in change_point(P, back)] for P in proven],
+            "selmer_dimensions": None if best is None else {"phi": str(best.dimensions[0]),
+                                                            "phi_dual": str(best.dimensions[1])},
+        },
+        "evidence": {
+            "integral_model": {"change": [format_rational(v) for v in change], "curve": [str(c) for c in model]},
+            "independence": independence,
+            "descent": None if best is None else best.entry,
+        },
+        "relies_on": theorems.entries((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())),
+    }
