@@ -417,3 +417,12 @@ def test_an_entry_that_is_not_an_object():
         with pytest.raises(Rejection) as rejected:
             check_analytic_witness(exact(RANK_ZERO), entry, "evidence.analytic")
         assert rejected.value.check == "structure"
+
+
+def test_rank_zero_with_a_non_trivial_sha():
+    """[0, −1, 0, −900, −10098] (conductor 960): analytic rank 0 and L(E, 1) by cypari2 ellanalyticrank; said to
+    have Sha of order 4 (recalled from memory), so a 2-isogeny descent may not close: the analytic witness
+    proves rank 0 all the same."""
+    a = (0, -1, 0, -900, -10098)
+    assert int(pari.ellglobalred(pari.ellinit(list(a)))[0]) == 960
+    check_table_curve(a)
