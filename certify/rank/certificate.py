@@ -77,6 +77,7 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
             "integral_model": {"change": [format_rational(v) for v in change], "curve": [str(c) for c in model]},
             "independence": independence,
             "descent": None if best is None else best.entry,
+            "analytic": None,
         },
         "relies_on": theorems.entries((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())),
     }

@@ -46,8 +46,10 @@ WIDER_QUARTIC_HEIGHT = 30_000
 fewer than the descent's bound. The cost grows as the square of the bound: on one quartic of a curve of
 conductor 66, 0.01 s at 10⁴, 0.13 s at 10⁵ and 11 s at 10⁶."""
 
-CHART_DISCS = 1500
-"""Most discs examined in one chart of one disc cover before the prime is given up for that element."""
+CHART_DISCS = 5000
+"""Most discs examined in one chart of one disc cover before the prime is given up for that element: an
+exclusion at p lists at least p discs unless the whole chart is one leaf, so the primes of b(a² − 4b)
+up to about this size can exclude (the verifier takes MAX_DISCS in all)."""
 
 WITNESS_TRIES = 24
 """Small values of M (with e = 1, and of e with M = 1) tried for a membership witness before any disc is split."""
