@@ -7,10 +7,13 @@ The argument, each step one function below:
    divide #Ẽ(F_p) for an odd prime p of good reduction (torsion injects there); at odd good primes q with
    ℓ ∥ #Ẽ(F_q), the characters χ_q(P) = (#Ẽ(F_q)/ℓ)·P̃ ∈ Ẽ(F_q)[ℓ] ≅ Z/ℓ of the points form a matrix of
    rank equal to the number of points over F_ℓ, so the points are independent modulo torsion;
-3. upper bound (curves with a rational 2-torsion point): the descent via 2-isogeny of
-   ``certify.verifier.descent`` gives dim S_T and dim S̄_T, and rank ≤ dim S_T + dim S̄_T − 2.
-Every count, reduction, multiple, discrete logarithm and local test is recomputed here.
+3. upper bound, by either witness or both: the descent via 2-isogeny of ``certify.verifier.descent`` (curves
+   with a rational 2-torsion point) gives dim S_T and dim S̄_T, and rank ≤ dim S_T + dim S̄_T − 2; an
+   analytic witness (``certify.verifier.lseries``) proves ord_{s=1} L(E, s) = k ≤ 1, and then rank = k
+   (Gross–Zagier, Kolyvagin). rank_upper is the least bound proven.
+Every count, reduction, multiple, discrete logarithm, local test and L-series term is recomputed here.
 """
+from certify.verifier import lseries
 from certify.verifier.arith import is_prime, parse_integer
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
 from certify.verifier.curves import add_mod, change_point, count_points, discriminant, multiple_mod, reduce_point
@@ -38,7 +41,9 @@ def check_rank_certificate(cert: dict) -> dict:
     points = read_points(a, field(claim, "points", list, "claim"))
     independence = optional(evidence, "independence", dict, "evidence")
     descent = optional(evidence, "descent", dict, "evidence")
-    check_relies_on(cert, (RELIES_ON_POINTS if points else ()) + (RELIES_ON_DESCENT if descent is not None else ()))
+    analytic = optional(evidence, "analytic", dict, "evidence")
+    check_relies_on(cert, (RELIES_ON_POINTS if points else ()) + (RELIES_ON_DESCENT if descent is not None else ())
+                    + (lseries.RELIES_ON if analytic is not None else ()))
 
     model, change = read_integral_model(a, field(evidence, "integral_model", dict, "evidence"))
     check_lower_bound(lower, points)
@@ -48,12 +53,18 @@ def check_rank_certificate(cert: dict) -> dict:
         checks["character primes"] = primes
     elif independence is not None:
         raise Rejection("structure", "evidence.independence must be null when the claim lists no points")
-    if descent is None:
-        check_no_upper_bound(upper, selmer)
-        return checks
-    *dimensions, excluded = check_descent(a, descent)
-    check_upper_bound(lower, upper, selmer, dimensions)
-    checks["cosets of the Selmer groups excluded"] = excluded
+    bounds = []
+    if descent is not None:
+        *dimensions, excluded = check_descent(a, descent)
+        check_selmer_dimensions(selmer, dimensions)
+        bounds.append(dimensions[0] + dimensions[1] - 2)
+        checks["cosets of the Selmer groups excluded"] = excluded
+    elif selmer is not None:
+        raise Rejection("selmer dimensions", "claim.selmer_dimensions must be null without a descent")
+    if analytic is not None:
+        bounds.append(lseries.check_analytic_witness(a, analytic, "evidence.analytic"))
+        checks["orders of vanishing proven"] = 1
+    check_upper_bound(lower, upper, bounds)
     return checks
 
 
@@ -177,26 +188,27 @@ def check_full_rank(columns: list, ell: int, size: int) -> None:
 
 # --- the upper bound ---
 
-def check_upper_bound(lower: int, upper, selmer, dimensions: tuple) -> None:
-    """rank_upper = dim S_T + dim S̄_T − 2 ≥ rank_lower, and the claimed Selmer dimensions are these."""
-    s, s_dual = dimensions
-    if upper is None or parse_integer(upper, "claim.rank_upper") != s + s_dual - 2:
-        raise Rejection("upper bound", "rank_upper is not dim S + dim S' - 2 from the descent", rank_upper=upper,
-                        bound=s + s_dual - 2)
-    if s + s_dual - 2 < lower:
-        raise Rejection("upper bound", "the descent's bound is below the number of independent points",
-                        bound=s + s_dual - 2, rank_lower=lower)
+def check_selmer_dimensions(selmer, dimensions: list) -> None:
+    """The claimed Selmer dimensions are the descent's dim S_T and dim S̄_T."""
     if selmer is None:
         raise Rejection("selmer dimensions", "claim.selmer_dimensions must state what the descent proves")
     claimed = [parse_integer(field(selmer, key, str, "claim.selmer_dimensions"), f"claim.selmer_dimensions.{key}")
                for key in ("phi", "phi_dual")]
-    if claimed != [s, s_dual]:
+    if claimed != list(dimensions):
         raise Rejection("selmer dimensions", "the claimed Selmer dimensions are not the descent's", claimed=claimed,
-                        computed=[s, s_dual])
+                        computed=list(dimensions))
 
 
-def check_no_upper_bound(upper, selmer) -> None:
-    """Without a descent nothing bounds the rank from above."""
-    if upper is not None or selmer is not None:
-        raise Rejection("upper bound", "rank_upper and selmer_dimensions must be null without a descent",
-                        rank_upper=upper)
+def check_upper_bound(lower: int, upper, bounds: list) -> None:
+    """rank_upper is the least of the proven bounds (null when there is none), and not below rank_lower: the
+    descent's dim S_T + dim S̄_T − 2 and the analytic order, which is the rank itself."""
+    if not bounds:
+        if upper is not None:
+            raise Rejection("upper bound", "rank_upper must be null when no witness bounds the rank", rank_upper=upper)
+        return
+    if upper is None or parse_integer(upper, "claim.rank_upper") != min(bounds):
+        raise Rejection("upper bound", "rank_upper is not the least bound the witnesses prove", rank_upper=upper,
+                        bounds=bounds)
+    if min(bounds) < lower:
+        raise Rejection("upper bound", "a proven upper bound is below the number of independent points",
+                        bounds=bounds, rank_lower=lower)
