@@ -82,22 +82,39 @@ def test_quiet_gives_the_claim_and_the_checks_on_one_line(certificates):
     assert ("cosets excluded" in line) == (cert["evidence"]["descent"] is not None)
 
 
-@pytest.mark.parametrize("claim, first", [
+@pytest.mark.parametrize("claim, analytic, first", [
     ({"rank_lower": "2", "rank_upper": "2", "points": [["1", "2"], ["3", "4"]],
-      "selmer_dimensions": {"phi": "2", "phi_dual": "2"}}, "E(Q) has rank 2: the points P1, P2 below are independent"),
-    ({"rank_lower": "0", "rank_upper": "0", "points": [], "selmer_dimensions": {"phi": "1", "phi_dual": "1"}},
+      "selmer_dimensions": {"phi": "2", "phi_dual": "2"}}, None,
+     "E(Q) has rank 2: the points P1, P2 below are independent modulo torsion, and the descent via 2-isogeny "
+     "bounds the rank by 2."),
+    ({"rank_lower": "0", "rank_upper": "0", "points": [], "selmer_dimensions": {"phi": "1", "phi_dual": "1"}}, None,
      "E(Q) has rank 0 (E(Q) is finite): the descent"),
     ({"rank_lower": "1", "rank_upper": "3", "points": [["1", "2"]], "selmer_dimensions": {"phi": "3", "phi_dual": "2"}},
-     "1 ≤ rank E(Q) ≤ 3: the point P1 below has infinite order"),
-    ({"rank_lower": "1", "rank_upper": None, "points": [["0", "0"]], "selmer_dimensions": None},
+     None, "1 ≤ rank E(Q) ≤ 3: the point P1 below has infinite order"),
+    ({"rank_lower": "1", "rank_upper": None, "points": [["0", "0"]], "selmer_dimensions": None}, None,
      "rank E(Q) ≥ 1: the point P1 below has infinite order. No upper bound is proven"),
+    ({"rank_lower": "1", "rank_upper": "1", "points": [["0", "0"]], "selmer_dimensions": None}, "1",
+     "E(Q) has rank 1: the point P1 below has infinite order, and L(E, s) vanishes to order exactly 1 at s = 1"),
+    ({"rank_lower": "0", "rank_upper": "0", "points": [], "selmer_dimensions": {"phi": "1", "phi_dual": "3"}}, "0",
+     "E(Q) has rank 0 (E(Q) is finite): the descent via 2-isogeny bounds the rank by 2 and L(E, s) vanishes to "
+     "order exactly 0"),
+    ({"rank_lower": "0", "rank_upper": "1", "points": [], "selmer_dimensions": None}, "1",
+     "0 ≤ rank E(Q) ≤ 1: L(E, s) vanishes to order exactly 1"),
 ])
-def test_claim_lines_in_words(claim, first):
-    """The sentence opening each form of the claim, one sentence on the gap when the bounds differ, and the
-    upper bound as the descent formula gives it (Silverman–Tate III.6: dim Sel^φ + dim Sel^ψ − 2)."""
-    text = " ".join(claim_lines({"format": "certify-rank", "claim": claim}))
+def test_claim_lines_in_words(claim, analytic, first):
+    """The sentence opening each form of the claim, with the witness of each upper bound; the descent's
+    sentence on the gap exactly when the bounds differ and the descent gives the upper bound (another
+    sentence when the analytic order does); the descent's own bound as the formula gives it
+    (Silverman–Tate III.6: dim Sel^φ + dim Sel^ψ − 2), even where an analytic witness does better."""
+    cert = {"format": "certify-rank", "claim": claim,
+            "evidence": {"analytic": None if analytic is None else {"order": analytic}}}
+    text = " ".join(claim_lines(cert))
     assert text.startswith(first), text
-    assert text.count(NOT_CLOSED) == (claim["rank_upper"] not in (None, claim["rank_lower"]))
-    if claim["selmer_dimensions"]:
-        phi, dual = claim["selmer_dimensions"]["phi"], claim["selmer_dimensions"]["phi_dual"]
-        assert f"rank E(Q) ≤ {phi} + {dual} − 2 = {int(phi) + int(dual) - 2}" in text
+    gap = claim["rank_upper"] not in (None, claim["rank_lower"])
+    dimensions = claim["selmer_dimensions"]
+    descent_bound = None if dimensions is None else int(dimensions["phi"]) + int(dimensions["phi_dual"]) - 2
+    assert text.count(NOT_CLOSED) == (gap and str(descent_bound) == claim["rank_upper"])
+    assert text.count("The bounds do not meet") == (gap and str(descent_bound) != claim["rank_upper"])
+    if dimensions:
+        phi, dual = dimensions["phi"], dimensions["phi_dual"]
+        assert f"rank E(Q) ≤ {phi} + {dual} − 2 = {descent_bound}" in text

@@ -89,7 +89,7 @@ def claim_lines(cert: dict) -> list:
     if cert["format"] == "certify-conductor":
         return conductor_claim_lines(cert["claim"])
     if cert["format"] == "certify-rank":
-        return rank_claim_lines(cert["claim"])
+        return rank_claim_lines(cert)
     if cert["format"] != "certify-isogeny-class":
         return textwrap.wrap(describe_claim(cert), WIDTH - 16)
     curves, degrees = cert["claim"]["curves"], cert["claim"]["degrees"]
@@ -132,35 +132,45 @@ def rank_claim(claim: dict) -> str:
     return f"E(Q) has rank {lower}" if lower == upper else f"{lower} ≤ rank E(Q) ≤ {upper}"
 
 
-def rank_claim_lines(claim: dict) -> list:
-    """A rank claim for the report: the bounds and where each comes from, one plain sentence when the
-    descent leaves them apart, the independent points, and the dimensions of the two Selmer groups."""
+def rank_claim_lines(cert: dict) -> list:
+    """A rank claim for the report: the bounds and the witnesses they come from (the points; the descent via
+    2-isogeny and its Selmer dimensions; the order of vanishing of L(E, s) at s = 1), and one plain sentence
+    when the bounds do not meet."""
+    claim, analytic = cert["claim"], cert["evidence"].get("analytic")
     lower, upper, points = claim["rank_lower"], claim["rank_upper"], claim["points"]
+    dimensions = claim["selmer_dimensions"]
     names = ", ".join(f"P{i}" for i in range(1, len(points) + 1))
     if len(points) > 1:
         found = f"the points {names} below are independent modulo torsion"
     else:
         found = "the point P1 below has infinite order" if points else "no point of infinite order is listed"
+    descent_bound = None if dimensions is None else int(dimensions["phi"]) + int(dimensions["phi_dual"]) - 2
+    witnesses = [] if descent_bound is None else [f"the descent via 2-isogeny bounds the rank by {descent_bound}"]
+    if analytic is not None:
+        order = analytic["order"]
+        witnesses.append(f"L(E, s) vanishes to order exactly {order} at s = 1, which bounds the rank by {order}")
     if upper is None:
         sentences = [f"{rank_claim(claim)}: {found}. No upper bound is proven: the certificate carries no descent "
-                     "via 2-isogeny."]
+                     "via 2-isogeny and no analytic witness."]
     else:
-        bound = f"the descent via 2-isogeny bounds the rank by {upper}"
         sentences = [f"{rank_claim(claim)}" + (" (E(Q) is finite): " if upper == "0" else ": ")
-                     + (f"{found}, and {bound}." if points else f"{bound}.")]
-        if lower != upper:
+                     + (f"{found}, and " if points else "") + " and ".join(witnesses) + "."]
+    if upper is not None and lower != upper:
+        if descent_bound == int(upper):
             sentences.append("The descent did not close, so this certificate does not determine the rank: the "
                              "Tate–Shafarevich groups of E or Ē have elements of order 2 that it cannot rule out, "
                              "or E(Q) has points too large to have been found.")
+        else:
+            sentences.append("The bounds do not meet, so this certificate does not determine the rank: no point of "
+                             "infinite order was found to match the order of vanishing.")
     lines = [line for sentence in sentences for line in textwrap.wrap(sentence, WIDTH - 16)]
     lines += [line for i, (x, y) in enumerate(points, 1)
               for line in textwrap.wrap(f"P{i} = ({x}, {y})", WIDTH - 16, subsequent_indent="     ")]
-    dimensions = claim["selmer_dimensions"]
     if dimensions is not None:
         phi, dual = dimensions["phi"], dimensions["phi_dual"]
         lines += textwrap.wrap(f"Selmer groups of the 2-isogeny φ: E → Ē and of its dual ψ: Ē → E, over F_2: "
-                               f"dim Sel^φ(E) = {phi}, dim Sel^ψ(Ē) = {dual}, so rank E(Q) ≤ {phi} + {dual} − 2 = "
-                               f"{upper}.", WIDTH - 16)
+                               f"dim Sel^φ(E) = {phi}, dim Sel^ψ(Ē) = {dual}, so the descent gives rank E(Q) ≤ "
+                               f"{phi} + {dual} − 2 = {descent_bound}.", WIDTH - 16)
     return lines
 
 
@@ -226,6 +236,8 @@ def check_sentences(checks: dict) -> list:
 
 EXCLUDED = "cosets of the Selmer groups excluded"
 """The key of a rank certificate's checks present exactly when it carries a descent."""
+ANALYTIC = "orders of vanishing proven"
+"""The key of a rank certificate's checks present exactly when it carries an analytic witness."""
 
 
 def rank_sentences(checks: dict) -> list:
@@ -239,12 +251,20 @@ def rank_sentences(checks: dict) -> list:
                      f"forming a matrix of rank {points} over F_ℓ;"]
     else:
         sentences = ["no points listed, so the lower bound is 0;"]
-    if EXCLUDED not in checks:
-        return sentences + ["no descent, so no upper bound."]
-    return sentences + ["the descent via 2-isogeny rechecked: the factorisations of b and a² − 4b proven, the images "
-                        "of points and the locally soluble elements spanning a subgroup of each Selmer group, and "
-                        f"every other class ({plural(checks[EXCLUDED], 'coset')}) excluded at ∞, at 2 or at an odd "
-                        "prime dividing b(a² − 4b), so the Selmer groups are exactly these subgroups."]
+    if EXCLUDED in checks:
+        sentences.append("the descent via 2-isogeny rechecked: the factorisations of b and a² − 4b proven, the "
+                         "images of points and the locally soluble elements spanning a subgroup of each Selmer "
+                         f"group, and every other class ({plural(checks[EXCLUDED], 'coset')}) excluded at ∞, at 2 or "
+                         "at an odd prime dividing b(a² − 4b), so the Selmer groups are exactly these subgroups;")
+    if ANALYTIC in checks:
+        sentences.append("the order of vanishing of L(E, s) at s = 1 proven: the conductor and the reduction types "
+                         "rechecked by Tate's algorithm, a_n up to the truncation point from the verifier's own "
+                         "counts, and enclosures of the root-number test and of L(E, 1) or L′(E, 1), with bounds "
+                         "for the tails, that exclude 0;")
+    if EXCLUDED not in checks and ANALYTIC not in checks:
+        sentences.append("no descent and no analytic witness, so no upper bound;")
+    sentences[-1] = sentences[-1][:-1] + "."
+    return sentences
 
 
 def counts(checks: dict) -> str:
@@ -258,7 +278,9 @@ def counts(checks: dict) -> str:
     if "points proven independent" in checks:
         return (f"{plural(checks['points proven independent'], 'independent point')}, "
                 f"{plural(checks.get('character primes', 0), 'character prime')}"
-                + (f", {plural(checks[EXCLUDED], 'coset')} excluded" if EXCLUDED in checks else ", no descent"))
+                + (f", {plural(checks[EXCLUDED], 'coset')} excluded" if EXCLUDED in checks else "")
+                + (", order of vanishing proven" if ANALYTIC in checks else "")
+                + (", no upper bound" if EXCLUDED not in checks and ANALYTIC not in checks else ""))
     return ", ".join(f"{value} {key}" for key, value in checks.items())
 
 
