@@ -152,7 +152,7 @@ def torsion_point(cert):
 
 def dependent_combination(cert):
     a, points = points_of(cert)
-    return points + [add(a, multiple(a, 3, points[0]), multiple(a, -2 % 7, points[1]))]
+    return points + [add(a, multiple(a, 3, points[0]), multiple(a, 5, points[1]))]
 
 
 FALSE_LOWER_BOUNDS = {
@@ -394,7 +394,6 @@ def test_selmer_dimension_labels_follow_silverman():
     generators = [tuple(Fraction(str(v)) for v in P) for P in pari.ellrank(E)[2]]
     torsion = [tuple(Fraction(str(v)) for v in P) for P in pari.elltors(E)[2]]
     primes = [int(f["prime"]) for f in descent["factorisation_b"]]
-    span = len(echelon([image_vector(P, B, primes) for P in generators + torsion
-                        if P[0] != 0 or B % 1 == 0]))
+    span = len(echelon([image_vector(P, B, primes) for P in generators + torsion]))
     assert span == 2
     assert int(cert["claim"]["selmer_dimensions"]["phi_dual"]) >= span, "phi_dual is below dim alpha(E(Q))"
