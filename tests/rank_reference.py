@@ -1,6 +1,6 @@
 """Reference values for the rank tests, from cypari2 as reference library and from the rank fixtures
 (Cremona's tables through Debian pari-elldata, tests/data/extract_ranks.py). Nothing here is used by
-the certifier, and nothing of the certifier is used here.
+the certifier, and nothing of the certifier is used here but its PARI instance.
 
 - ``ellrank`` (PARI's 2-descent with point search): bounds r_lo <= rank <= r_hi;
 - ``ell2cover`` (a basis of the 2-Selmer group of E as locally soluble 2-covers): its length C;
@@ -17,7 +17,8 @@ Curves*, §III.6) the descent bound is
 
 Here Sha(E)[φ] is the kernel of φ on Sha(E); it lies in Sha(E)[2] (φ'φ = 2), and φ maps Sha(E)[2] into
 Sha(E')[φ'], so 0 → Sha(E)[φ] → Sha(E)[2] → Sha(E')[φ'] is exact, and likewise with E, E' exchanged.
-Hence: if Sha(E)[2] ≠ 0, no 2-isogeny descent of E reaches the rank; if Sha(E)[2] = 0, then
+Hence dim Sha(E)[2] <= dim Sha(E)[φ] + dim Sha(E')[φ']: every 2-isogeny descent bound is at least
+rank + dim Sha(E)[2], and none reaches the rank when Sha(E)[2] ≠ 0. If Sha(E)[2] = 0, then
 Sha(E)[φ] = 0 and Sha(E')[φ'] = Sha(E')[2], so the φ-descent bound is exactly rank + dim Sha(E')[2].
 The 2-rank of Sha is C − T − rank with T = dim E(Q)[2] (Silverman X.4.2 for the isogeny [2]; the
 formula C = T + R + S of PARI's documentation of ``ellrank``).
@@ -66,15 +67,16 @@ def ellrank_bounds(a, effort: int = 0) -> tuple:
 
 
 def two_torsion_points(a) -> list:
-    """The rational points of order 2, [x, y] as Fractions: x a rational root of the 2-division
-    polynomial 4x³ + b2x² + 2b4x + b6 (cypari2 ``elldivpol``, ``factor``), y = −(a1x + a3)/2."""
+    """The rational points of order 2, [x, y] as Fractions, in increasing order of x: x a rational
+    root of the 2-division polynomial 4x³ + b2x² + 2b4x + b6 (cypari2 ``elldivpol``, ``factor``),
+    y = −(a1x + a3)/2."""
     a1, _, a3, _, _ = (Fraction(c) for c in a)
     points = []
     for factor in pari.factor(pari.elldivpol(pari_curve(a), 2))[0]:
         if int(pari.poldegree(factor)) == 1:
             x = Fraction(str(-pari.polcoef(factor, 0) / pari.polcoef(factor, 1)))
             points.append([x, -(a1 * x + a3) / 2])
-    return points
+    return sorted(points)
 
 
 def has_rational_two_torsion(a) -> bool:
@@ -82,7 +84,8 @@ def has_rational_two_torsion(a) -> bool:
 
 
 def two_isogenous_curves(a) -> list:
-    """E/<T> for every rational point T of order 2 (cypari2 ``ellisogeny``), as coefficient tuples."""
+    """E/<T> for every rational point T of order 2 (cypari2 ``ellisogeny``), as coefficient tuples, in
+    the order of ``two_torsion_points``."""
     curve = pari_curve(a)
     return [tuple(Fraction(str(c)) for c in pari.ellisogeny(curve, [pari(str(x)), pari(str(y))], 1)[:5])
             for x, y in two_torsion_points(a)]
@@ -99,8 +102,9 @@ def sha_two_rank(a, rank: int) -> int:
 
 def descent_bounds(a, rank: int):
     """The bound rank + dim Sha(E')[2] of each 2-isogeny descent E → E' (one per rational point of
-    order 2), valid when Sha(E)[2] = 0 (module docstring); None when Sha(E)[2] ≠ 0, where every
-    2-isogeny descent's bound exceeds the rank; [] without a rational point of order 2."""
+    order 2, in the order of ``two_torsion_points``), valid when Sha(E)[2] = 0 (module docstring); None
+    when Sha(E)[2] ≠ 0, where every 2-isogeny descent's bound exceeds the rank; [] without a rational
+    point of order 2."""
     if sha_two_rank(a, rank) != 0:
         return None
     return [rank + sha_two_rank(target, rank) for target in two_isogenous_curves(a)]

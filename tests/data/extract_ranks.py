@@ -62,12 +62,12 @@ def write(path: pathlib.Path, header: list, lines: list) -> None:
 def main() -> None:
     folder = pathlib.Path(sys.argv[1] if len(sys.argv) > 1 else "/usr/share/pari/elldata")
     write(HERE / "rank_lt_1000.txt",
-          ["Cremona, Algorithms for Modular Elliptic Curves (2nd ed.), conductor < 1000, rank = number of generators listed,",
+          ["Cremona, Algorithms for Modular Elliptic Curves (2nd ed.), conductor < 1000, rank = number of generators,",
            "from PARI's curve-data package (Debian pari-elldata, ell0.gz); extracted by tests/data/extract_ranks.py"],
           with_ranks(folder, list(rows(folder))))
     write(HERE / "rank_100000_499999.txt",
           [f"Cremona's elliptic-curve tables, conductor 100000-499999: {SIZE} curves drawn at random (seed {SEED}),",
-           "rank = number of generators listed, from PARI's curve-data package (Debian pari-elldata, ell100.gz ... ell499.gz);",
+           "from PARI's curve data (Debian pari-elldata, ell100.gz ... ell499.gz), rank = number of generators;",
            "extracted by tests/data/extract_ranks.py"],
           with_ranks(folder, sample(folder, SEED, SIZE)))
 
