@@ -17,7 +17,8 @@ README = ROOT / "README.md"
 MARK = "<!-- example: checked by tests/test_readme_examples.py -->"
 DIGEST_MARK = "<!-- source digest: checked by tests/test_readme_examples.py -->"
 TRUST_MARK = "<!-- trusted files: checked by tests/test_readme_examples.py -->"
-KINDS = {"torsion": "certify-torsion", "isogeny": "certify-isogeny-class", "conductor": "certify-conductor"}
+KINDS = {"torsion": "certify-torsion", "isogeny": "certify-isogeny-class", "conductor": "certify-conductor",
+         "rank": "certify-rank"}
 """The verifier module of each certificate kind, and its format."""
 BLOCK = re.compile(re.escape(MARK) + r"\n```console\n(.*?)```", re.S)
 VOLATILE = [(re.compile(r"\d+\.\d+ s\b"), "T s"), (re.compile(r"\d+\.\d+ curves/s"), "R curves/s"),
