@@ -12,11 +12,12 @@ import copy
 import functools
 import json
 import sys
+from fractions import Fraction
 
 import pytest
 
 import rank_mutations as rm
-from certify.verifier.curves import count_points
+from certify.verifier.curves import change_point, count_points
 from certify.verifier.theorems import entries
 from certify.verifier.rank import RELIES_ON_DESCENT
 from hostile_run import ENTRY_POINTS, assert_answered, run, write_files
@@ -64,11 +65,17 @@ def proth_certificates(count: int) -> list:
     return out
 
 
+def on_descent_model(cert: dict, point: list) -> list:
+    """The image of a point of the input curve on the descent's model y² = x³ + a x² + b x (the φ side)."""
+    change = tuple(Fraction(v) for v in cert["evidence"]["descent"]["change"])
+    return [str(v) for v in change_point(tuple(Fraction(v) for v in point), change)]
+
+
 def side_points_attack() -> dict:
     """1,150 copies of a 3,880-digit point on the φ side of a genuine certificate (15 MB, under every limit):
     each is checked on the curve in exact rational arithmetic, with no budget charged."""
     cert = congruent_five()
-    cert["evidence"]["descent"]["phi"]["points"] += [high_point()] * 1150
+    cert["evidence"]["descent"]["phi"]["points"] += [on_descent_model(cert, high_point())] * 1150
     return cert
 
 
@@ -229,6 +236,9 @@ def test_attack_files_are_what_they_say():
     cert = all_budgets_attack()
     x, y = (pari(v) for v in high_point())
     assert pari.ellisoncurve(pari.ellinit([0, 0, 0, -25, 0]), [x, y])
+    descent = cert["evidence"]["descent"]
+    side_curve = pari.ellinit([0, int(descent["a"]), 0, int(descent["b"]), 0])
+    assert all(pari.ellisoncurve(side_curve, [pari(v) for v in P]) for P in descent["phi"]["points"])
     assert len(json.dumps(cert)) < 20_000_000
     assert all(pari.ispseudoprime(k * 2 ** e + 1) for e, k in PROTH_PRIMES)
     primes = [int(q) for q in cert["evidence"]["independence"]["character_primes"]]
