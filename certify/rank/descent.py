@@ -324,9 +324,9 @@ def generator_points(descent: Descent, height: int) -> list:
     """Points of the integral model from the quartics of the local generators of the descent, searched
     up to ``height``: where the descent's bound may still be met by points."""
     A, B = descent.model.A, descent.model.B
-    phi_side = [quartic_point(A, B, int(g["d"]), height) for g in descent.entry["phi"]["local_generators"]]
+    phi_side = [quartic_point(A, B, int(g["d"]), height) for g in descent.entry["phi_dual"]["local_generators"]]
     dual_side = [quartic_point(-2 * A, A * A - 4 * B, int(g["d"]), height)
-                 for g in descent.entry["phi_dual"]["local_generators"]]
+                 for g in descent.entry["phi"]["local_generators"]]
     return model_points(descent.model, phi_side, dual_side)
 
 
@@ -379,12 +379,12 @@ def descend(change, descent_model: DescentModel, known_points: list, deadline: f
         "factorisation_b": [{"prime": str(p), "exponent": str(v)} for p, v in factors],
         "factorisation_b_dual": [{"prime": str(p), "exponent": str(v)} for p, v in factors_dual],
         "pocklington": pocklington_certificates(sorted(set(primes) | set(primes_dual))),
-        "phi": side.entry(),
-        "phi_dual": dual.entry(),
+        "phi": dual.entry(),        # Sel^φ(E/Q) ⊆ ⟨−1, p | a² − 4b⟩ holds the images of Ē(Q) (Silverman X.4.9)
+        "phi_dual": side.entry(),   # Sel^φ̂(Ē/Q) ⊆ ⟨−1, p | b⟩ holds α(E(Q))
     }
     if discs(entry) > MAX_DISCS or local_work(entry) > MAX_LOCAL_WORK:
         return None
-    dimensions = (len(side.basis), len(dual.basis))
+    dimensions = (len(dual.basis), len(side.basis))
     return Descent(descent_model, entry, sum(dimensions) - 2, dimensions, new_points, len(json.dumps(entry)))
 
 
@@ -400,7 +400,7 @@ def local_work(entry: dict) -> int:
     1 + local_size(max(|M|, |e|, 1)⁴(|A| + |B| + 1)) + exponentiation_cost(p))."""
     A, B = int(entry["a"]), int(entry["b"])
     work = 0
-    for name, (A_side, B_side) in (("phi", (A, B)), ("phi_dual", (-2 * A, A * A - 4 * B))):
+    for name, (A_side, B_side) in (("phi_dual", (A, B)), ("phi", (-2 * A, A * A - 4 * B))):
         for generator in entry[name]["local_generators"]:
             for witness in generator["membership"]:
                 size = max(abs(int(witness["M"])), abs(int(witness["e"])), 1) ** 4 * (abs(A_side) + abs(B_side) + 1)

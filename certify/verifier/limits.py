@@ -108,9 +108,12 @@ MAX_CHARACTER_ELL = 97
 MAX_DESCENT_PRIMES = 64
 """Most primes in the factorisation of b, or of a² − 4b, of a descent: dim V is at most 65."""
 
+MAX_DESCENT_GENERATORS = 65
+"""Most points, and most local generators, on one side of a descent: W lies in V, of dimension at most
+MAX_DESCENT_PRIMES + 1, so more are never needed."""
+
 MAX_DESCENT_ELEMENTS = 4096
-"""Most points, local generators or exclusions on one side of a descent (the exclusions number |V/W| − 1,
-so W may have codimension at most 12 in V)."""
+"""Most exclusions on one side of a descent (they number |V/W| − 1, so W may have codimension at most 12 in V)."""
 
 MAX_DISCS = 20_000
 """Most discs in all the disc covers of one certificate, counted before any is tested."""

@@ -63,10 +63,8 @@ def read_pocklington(entries: list) -> dict:
     """{n: [(q, a_q), …]} from the evidence, refused at once over the documented limits: at most
     MAX_POCKLINGTON_CERTIFICATES certificates, each n of at most MAX_POCKLINGTON_DIGITS digits, and
     Σ (number of listed q) × exponentiation_cost(n) at most MAX_PRIMALITY_WORK."""
-    if len(entries) > MAX_POCKLINGTON_CERTIFICATES:
-        raise Rejection("primality limit", f"more than {MAX_POCKLINGTON_CERTIFICATES} Pocklington certificates",
-                        certificates=len(entries))
     certificates, work = {}, 0
+    check_certificate_count(entries)
     for i, entry in enumerate(entries):
         where = f"evidence.pocklington[{i}]"
         n = parse_integer(field(entry, "prime", str, where), f"{where}.prime")
@@ -84,6 +82,26 @@ def read_pocklington(entries: list) -> dict:
                             limit=MAX_PRIMALITY_WORK)
         certificates[n] = factors
     return certificates
+
+
+def check_certificate_count(entries: list) -> None:
+    if len(entries) > MAX_POCKLINGTON_CERTIFICATES:
+        raise Rejection("primality limit", f"more than {MAX_POCKLINGTON_CERTIFICATES} Pocklington certificates",
+                        certificates=len(entries))
+
+
+def pocklington_work(lists: list) -> int:
+    """Σ (listed factors) × exponentiation_cost(n) over several lists of Pocklington certificates, from their
+    sizes alone (each n's length, each list's length), so that a certificate carrying more than one list can
+    be refused at once when together they exceed MAX_PRIMALITY_WORK."""
+    work = 0
+    for entries in lists:
+        check_certificate_count(entries)
+        for entry in entries:
+            prime, factors = (entry.get(key) if isinstance(entry, dict) else None for key in ("prime", "factors"))
+            if isinstance(prime, str) and isinstance(factors, list):
+                work += len(factors) * exponentiation_cost(10 ** min(len(prime), MAX_POCKLINGTON_DIGITS + 1))
+    return work
 
 
 def check_pocklington(n: int, factors: list, proven: set) -> None:

@@ -17,10 +17,12 @@ from certify.verifier import lseries
 from certify.verifier.arith import is_prime, parse_integer
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
 from certify.verifier.curves import add_mod, change_point, count_points, discriminant, multiple_mod, reduce_point
-from certify.verifier.descent import check_descent
+from certify.verifier.descent import check_descent, check_descent_size
 from certify.verifier.errors import Rejection
-from certify.verifier.limits import MAX_CHARACTER_ELL, MAX_HINT_PRIME, MAX_PRIMES, MAX_RANK_POINTS, MAX_WORK
+from certify.verifier.limits import (MAX_CHARACTER_ELL, MAX_HINT_PRIME, MAX_PRIMALITY_WORK, MAX_PRIMES, MAX_RANK_POINTS,
+                                     MAX_WORK)
 from certify.verifier.models import check_input_model
+from certify.verifier.primality import pocklington_work
 
 FORMAT = "certify-rank"
 VERSIONS = ("1",)
@@ -47,12 +49,16 @@ def check_rank_certificate(cert: dict) -> dict:
 
     model, change = read_integral_model(a, field(evidence, "integral_model", dict, "evidence"))
     check_lower_bound(lower, points)
+    if points and independence is None:
+        raise Rejection("structure", "evidence.independence is needed when the claim lists points")
+    if independence is not None and not points:
+        raise Rejection("structure", "evidence.independence must be null when the claim lists no points")
+    characters = read_independence(independence) if points else None
+    check_sizes(model, characters, descent, analytic)
     checks = {"points proven independent": len(points)}
     if points:
-        primes = check_independence(model, [change_point(P, change) for P in points], independence)
-        checks["character primes"] = primes
-    elif independence is not None:
-        raise Rejection("structure", "evidence.independence must be null when the claim lists no points")
+        check_independence(model, [change_point(P, change) for P in points], *characters)
+        checks["character primes"] = len(characters[2])
     bounds = []
     if descent is not None:
         *dimensions, excluded = check_descent(a, descent)
@@ -101,36 +107,58 @@ def check_lower_bound(lower: int, points: list) -> None:
 
 # --- independence by reduction characters ---
 
-def check_independence(model, points: list, entry) -> int:
-    """The points (on the integral model) are independent modulo torsion; returns the number of character
-    primes used."""
-    if entry is None:
-        raise Rejection("structure", "evidence.independence is needed when the claim lists points")
-    ell = parse_integer(field(entry, "ell", str, "evidence.independence"), "evidence.independence.ell")
-    p = parse_integer(field(entry, "torsion_prime", str, "evidence.independence"),
-                      "evidence.independence.torsion_prime")
-    primes = [parse_integer(q, f"evidence.independence.character_primes[{i}]")
-              for i, q in enumerate(field(entry, "character_primes", list, "evidence.independence"))]
-    check_character_primes(model, ell, p, primes)
+def read_independence(entry: dict) -> tuple:
+    """(ℓ, the torsion prime, the character primes) from the evidence."""
+    where = "evidence.independence"
+    ell = parse_integer(field(entry, "ell", str, where), f"{where}.ell")
+    p = parse_integer(field(entry, "torsion_prime", str, where), f"{where}.torsion_prime")
+    primes = [parse_integer(q, f"{where}.character_primes[{i}]")
+              for i, q in enumerate(field(entry, "character_primes", list, where))]
+    return ell, p, primes
+
+
+def check_sizes(model, characters, descent, analytic) -> None:
+    """Every limit of the certificate before any count, local test or primality proof: the character primes
+    (``check_character_primes``), the point counts of the characters and of the analytic witness together
+    within MAX_WORK, the Pocklington certificates of the descent and of the witness's conductor together
+    within MAX_PRIMALITY_WORK, and the sizes of the descent."""
+    counts = 0
+    if characters is not None:
+        ell, p, primes = characters
+        check_character_primes(model, ell, p, primes)
+        counts += p + sum(primes)
+    certificates = []
+    if descent is not None:
+        check_descent_size(descent)
+        certificates.append(field(descent, "pocklington", list, "evidence.descent"))
+    if analytic is not None:
+        truncation = lseries.read_witness(analytic, "evidence.analytic")[2]
+        counts += sum(lseries.primes_up_to(truncation))
+        conductor = field(analytic, "conductor", dict, "evidence.analytic")
+        certificates.append(field(conductor, "pocklington", list, "evidence.analytic.conductor"))
+    if counts > MAX_WORK:
+        raise Rejection("work", f"the point counts need more than {MAX_WORK} residue evaluations", work=counts)
+    if pocklington_work(certificates) > MAX_PRIMALITY_WORK:
+        raise Rejection("primality limit", "the Pocklington certificates together need more work than the verifier "
+                        "allows", limit=MAX_PRIMALITY_WORK)
+
+
+def check_independence(model, points: list, ell: int, p: int, primes: list) -> None:
+    """The points (on the integral model) are independent modulo torsion."""
     check_ell_prime_to_torsion(model, ell, p)
     columns = [characters(model, points, ell, q, count_points(model, q)) for q in primes]
     check_full_rank(columns, ell, len(points))
-    return len(primes)
 
 
 def check_character_primes(model, ell: int, p: int, primes: list) -> None:
     """ℓ is a prime up to MAX_CHARACTER_ELL; p and the character primes are odd primes up to MAX_HINT_PRIME
-    of good reduction, the character primes increasing, at most MAX_PRIMES, and Σ of all of them within
-    MAX_WORK (each costs an O(q) count), checked before any count."""
+    of good reduction, the character primes increasing and at most MAX_PRIMES."""
     if not (2 <= ell <= MAX_CHARACTER_ELL and is_prime(ell)):
         raise Rejection("character prime", f"ell must be a prime up to {MAX_CHARACTER_ELL}", ell=ell)
     if len(primes) > MAX_PRIMES:
         raise Rejection("list size", f"more than {MAX_PRIMES} character primes", primes=len(primes))
     if any(q <= previous for previous, q in zip(primes, primes[1:])):
         raise Rejection("character prime", "the character primes must increase strictly", primes=primes)
-    if p + sum(primes) > MAX_WORK:
-        raise Rejection("work", f"the point counts need more than {MAX_WORK} residue evaluations",
-                        work=p + sum(primes))
     delta = int(discriminant(model))
     for q in [p, *primes]:
         if not (2 < q <= MAX_HINT_PRIME and is_prime(q)):
