@@ -315,3 +315,35 @@ def mutant(seed: int) -> tuple:
             break   # an earlier mutation broke the shape this one reads: the mutant stays as it is
         names.append(mutation.__name__)
     return index, cert, names
+
+
+@functools.cache
+def side_on_e() -> str:
+    """The name of the descent side ("phi" or "phi_dual") whose curve is E: y² = x³ + a x² + b x itself (the other
+    is Ē: y² = x³ − 2a x² + (a² − 4b) x), found by offering the verifier, on each side of a genuine
+    certificate, the image on E of a point of the input curve: only E's side accepts it."""
+    from certify.verifier.curves import change_point
+    for cert, _ in pool():
+        descent = cert["evidence"]["descent"]
+        if descent is None or not cert["claim"]["points"]:
+            continue
+        change = tuple(Fraction(v) for v in descent["change"])
+        point = [str(v) for v in change_point(tuple(Fraction(v) for v in cert["claim"]["points"][0]), change)]
+        for side in ("phi", "phi_dual"):
+            probe = copy.deepcopy(cert)
+            probe["evidence"]["descent"][side]["points"].append(point)
+            try:
+                verify(probe)
+                return side
+            except Rejection:
+                continue
+    raise AssertionError("neither side of a descent takes a point of E")
+
+
+def side_curve(cert: dict, side: str) -> tuple:
+    """(A, B, the key of the factorisation of B) of one side of the certificate's descent."""
+    descent = cert["evidence"]["descent"]
+    a, b = int(descent["a"]), int(descent["b"])
+    if side == side_on_e():
+        return a, b, "factorisation_b"
+    return -2 * a, a * a - 4 * b, "factorisation_b_dual"
