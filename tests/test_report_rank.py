@@ -14,8 +14,11 @@ from certify.verifier.theorems import THEOREMS
 CURVES = {
     "[0,0,0,-1,0]": "rank 0, the congruent-number curve for n = 1 (Fermat)",
     "[0,0,0,-1156,0]": "rank 2, the congruent-number curve for n = 34",
-    "[0,-10,0,2,0]": "rank 0 by cypari2's ellrank, with a 2-isogeny Selmer group larger than E(Q)/2E(Q) needs",
-    "[0,0,1,-1,0]": "rank 1, no rational point of order 2 (no descent via 2-isogeny)",
+    "[0,-10,0,2,0]": "rank 0 by cypari2's ellrank, with a 2-isogeny Selmer group larger than E(Q)/2E(Q) needs "
+                     "(the analytic witness proves the rank)",
+    "[0,0,1,-1,0]": "rank 1, no rational point of order 2 (no descent via 2-isogeny; the analytic witness)",
+    "[0,0,1,-7,6]": "rank 3, no rational point of order 2 and analytic rank 3: a lower bound alone",
+    "[1,-1,1,-1639,-25157]": "rank 1 by cypari2's ellrank, its generator beyond the point search: bounds 0 and 1",
 }
 """Curves whose rank certificates show each form of the claim; ranks by cypari2's ellrank."""
 

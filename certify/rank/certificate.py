@@ -1,10 +1,14 @@
 """The rank certifier: rank_lower ≤ rank E(Q) ≤ rank_upper, with independent points for the lower bound
-and, on curves with a rational 2-torsion point, a descent via 2-isogeny for the upper bound.
+and, for the upper bound, a descent via 2-isogeny (curves with a rational 2-torsion point) or an analytic
+witness of the order of vanishing of L(E, s) at s = 1.
 
 Order of work: points of small height on the reduced minimal model (PARI's ellratpoints); for each
 rational 2-torsion point a descent (``certify.rank.descent``), whose quartic searches may find more
 points; the best descent kept (least bound, then shortest); a maximal independent set of the points
-chosen by canonical heights; while it is smaller than the bound (or there is no bound), wider searches
+chosen by canonical heights; when no descent meets those points, an analytic witness of
+ord_{s=1} L(E, s) ≤ 1 (``certify.analytic``), which is then the rank (Gross–Zagier, Kolyvagin), kept only
+where the descent does not already prove the rank; while the points are fewer than the least bound (or
+there is no bound), wider searches
 on the curve and on the quartics of the local generators; the set proven independent by reduction
 characters (``certify.rank.points``). A time budget bounds the descents and the wider searches: past
 it, what is claimed is what is proven so far, and an unfinished descent claims no bound at all.
@@ -14,12 +18,14 @@ from __future__ import annotations
 import signal
 import time
 
+from certify.analytic import analytic_witness
 from certify.curves import Curve, format_rational, inverse_change
 from certify.pari import pari
 from certify.rank.descent import WIDER_QUARTIC_HEIGHT, descend, descent_models, generator_points
 from certify.rank.points import SEARCH_HEIGHT, WIDER_HEIGHTS, independent_subset, prove_independent, search
 from certify.verifier import theorems
 from certify.verifier.curves import change_point
+from certify.verifier.lseries import RELIES_ON as ANALYTIC_RELIES_ON
 from certify.verifier.rank import FORMAT, RELIES_ON_DESCENT, RELIES_ON_POINTS
 
 DEFAULT_SECONDS = 60.0
@@ -50,17 +56,24 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
             descents.append(descent)
     best = min(descents, key=lambda d: (d.bound, d.size), default=None)
     independent = independent_subset(curve, points)
-    wider = WIDER_HEIGHTS if best is not None else WIDER_HEIGHTS[:1]
+    analytic = None
+    if (best is None or best.bound > len(independent)) and time.monotonic() < deadline:
+        analytic = analytic_witness(a)
+    bounds = ([best.bound] if best is not None else []) + ([int(analytic["order"])] if analytic else [])
+    wider = WIDER_HEIGHTS if bounds else WIDER_HEIGHTS[:1]
     for i, height in enumerate(wider):
-        if (best is not None and len(independent) >= best.bound) or time.monotonic() > deadline:
+        if (bounds and len(independent) >= min(bounds)) or time.monotonic() > deadline:
             break
         points += search(curve, height)
         if best is not None and i == 0:
             points += generator_points(best, WIDER_QUARTIC_HEIGHT)
         independent = independent_subset(curve, points)
     proven, independence = prove_independent(model, independent)
-    if best is not None and best.bound < len(proven):
-        raise ArithmeticError("the descent bound is below the number of independent points: a certifier bug")
+    if bounds and min(bounds) < len(proven):
+        raise ArithmeticError("a proven upper bound is below the number of independent points: a certifier bug")
+    if analytic is not None and best is not None and best.bound == len(proven):
+        analytic = None   # the descent alone proves the rank
+        bounds = [best.bound]
     back = inverse_change(change)
     return {
         "format": FORMAT,
@@ -68,7 +81,7 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
         "curve": list(given) if given is not None else [format_rational(c) for c in a],
         "claim": {
             "rank_lower": str(len(proven)),
-            "rank_upper": None if best is None else str(best.bound),
+            "rank_upper": str(min(bounds)) if bounds else None,
             "points": [[format_rational(v) for v in change_point(P, back)] for P in proven],
             "selmer_dimensions": None if best is None else {"phi": str(best.dimensions[0]),
                                                             "phi_dual": str(best.dimensions[1])},
@@ -77,7 +90,8 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
             "integral_model": {"change": [format_rational(v) for v in change], "curve": [str(c) for c in model]},
             "independence": independence,
             "descent": None if best is None else best.entry,
-            "analytic": None,
+            "analytic": analytic,
         },
-        "relies_on": theorems.entries((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())),
+        "relies_on": theorems.entries((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())
+                                      + (ANALYTIC_RELIES_ON if analytic else ())),
     }
