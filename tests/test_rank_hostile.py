@@ -380,9 +380,6 @@ def test_descent_of_another_curve_is_refused():
 
 # --- the meaning of the claim's Selmer dimensions ----------------------------------------------------------------
 
-@pytest.mark.xfail(strict=True, reason="selmer_dimensions.phi is the dimension of the group that contains "
-                   "alpha(E(Q)) (d | b), which is the Selmer group of the dual isogeny, Sel^psi(E-bar), by "
-                   "Silverman X.4.9; the claim, README and report call it Sel^phi(E)")
 def test_selmer_dimension_labels_follow_silverman():
     """Silverman, *The Arithmetic of Elliptic Curves*, X.4.9: for φ: E → E' with E: y² = x³ + a x² + b x, the
     φ-Selmer group S^(φ)(E/Q) contains δ(E'(Q)), δ(x, y) = x mod squares on E' (d | a² − 4b); the dual's

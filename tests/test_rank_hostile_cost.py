@@ -215,10 +215,6 @@ def test_budgeted_work_is_answered(tmp_path, name):
         assert verdict.startswith("rejected: ") and check_named(verdict) in checks, (entry, verdict[:300])
 
 
-@pytest.mark.xfail(strict=True, reason="the points of a descent side (up to 4,096 each, of 4,000-digit "
-                   "coordinates) are read and checked on the curve in exact rational arithmetic before any "
-                   "budget is charged: a 15 MB file costs 4-5 s and is accepted; and the budgets of a rank "
-                   "certificate (counts, primality, local work, and these points) add up unbounded together")
 @pytest.mark.parametrize("name", UNBUDGETED)
 def test_unbudgeted_side_points_are_refused_by_a_limit(tmp_path, name):
     """The file must be answered within the bounds and refused by a limit before the work, as the hostile-input
