@@ -29,7 +29,7 @@ PROTH_PRIMES = ((3302, 777), (3300, 7161), (3301, 3351), (3303, 1629), (3304, 93
 cypari2's ``ispseudoprime``; the verifier proves each by its Pocklington check (2^e > √n, so the factor 2
 alone suffices), and the tests fail if one is not a BPSW probable prime (cypari2 ``ispseudoprime``)."""
 
-LIMIT_CHECKS = ("descent size", "local work", "list size", "work", "primality limit")
+LIMIT_CHECKS = ("descent size", "rank work", "list size", "work", "primality limit")
 """The checks that refuse a certificate for the work it would cause, before that work."""
 
 
@@ -193,11 +193,11 @@ UNBUDGETED = {"1,150 points of 3,880 digits on a descent side": side_points_atta
               "every budget spent at once": all_budgets_attack}
 
 BUDGETED = {
-    "Euler tests modulo a 997-digit prime": (euler_attack, ("local work",)),
+    "Euler tests modulo a 997-digit prime": (euler_attack, ("rank work",)),
     "12,288 leaf tests of 955-digit quartics": (thousand_digit_discs_attack, ("cosets",)),
     "4,096 local generators with 1,000-digit values": (many_generators_attack, LIMIT_CHECKS),
     "64 claim points of 3,880 digits": (high_claim_points_attack, ("independence",)),
-    "valuations of 3,800-digit numbers": (huge_valuations_attack, ("local work", "cosets")),
+    "valuations of 3,800-digit numbers": (huge_valuations_attack, ("rank work", "cosets")),
 }
 
 

@@ -32,11 +32,14 @@ from certify.pari import pari
 from certify.roots import rational_roots
 from certify.verifier.arith import valuation
 from certify.verifier.curves import b_invariants, change_point, on_curve
-from certify.verifier.descent import (INFINITY, echelon, element_vector, image_vector, is_local_square, leaf_verdict,
-                                      local_size, quartics, real_soluble, reduce_vector)
+from certify.verifier.descent import (INFINITY, echelon, element_vector, image_vector, is_local_square, leaf_cost,
+                                      leaf_verdict, membership_cost, quartics, real_soluble, reduce_vector)
 from certify.verifier.limits import (MAX_DESCENT_ELEMENTS, MAX_DESCENT_PRIMES, MAX_DISC_DEPTH, MAX_DISC_PRIME, MAX_DISCS,
-                                     MAX_LOCAL_WORK)
-from certify.verifier.primality import exponentiation_cost
+                                     MAX_RANK_WORK)
+
+LOCAL_WORK_SHARE = MAX_RANK_WORK // 2
+"""The most of the verifier's rank budget a descent's local tests may take: the rest is left for the point
+counts, the primality proofs and an analytic witness."""
 
 QUARTIC_HEIGHT = 10_000
 """Bound on the numerator and denominator of M/e in the search for points on a quartic C_d."""
@@ -382,7 +385,7 @@ def descend(change, descent_model: DescentModel, known_points: list, deadline: f
         "phi": dual.entry(),        # Sel^φ(E/Q) ⊆ ⟨−1, p | a² − 4b⟩ holds the images of Ē(Q) (Silverman X.4.9)
         "phi_dual": side.entry(),   # Sel^φ̂(Ē/Q) ⊆ ⟨−1, p | b⟩ holds α(E(Q))
     }
-    if discs(entry) > MAX_DISCS or local_work(entry) > MAX_LOCAL_WORK:
+    if discs(entry) > MAX_DISCS or local_work(entry) > LOCAL_WORK_SHARE:
         return None
     dimensions = (len(dual.basis), len(side.basis))
     return Descent(descent_model, entry, sum(dimensions) - 2, dimensions, new_points, len(json.dumps(entry)))
@@ -395,22 +398,17 @@ def discs(entry: dict) -> int:
 
 
 def local_work(entry: dict) -> int:
-    """The verifier's charge for the local tests of a descent entry (``certify.verifier.descent``: a leaf
-    test on c + p^k Z_p costs 1 + local_size(max|f_i|·p^(4k+1)), a membership witness
-    1 + local_size(max(|M|, |e|, 1)⁴(|A| + |B| + 1)) + exponentiation_cost(p))."""
+    """The verifier's charge for the local tests of a descent entry (``leaf_cost``, ``membership_cost``)."""
     A, B = int(entry["a"]), int(entry["b"])
     work = 0
     for name, (A_side, B_side) in (("phi_dual", (A, B)), ("phi", (-2 * A, A * A - 4 * B))):
         for generator in entry[name]["local_generators"]:
             for witness in generator["membership"]:
-                size = max(abs(int(witness["M"])), abs(int(witness["e"])), 1) ** 4 * (abs(A_side) + abs(B_side) + 1)
-                work += 1 + local_size(size) + exponentiation_cost(int(witness["prime"]))
+                work += membership_cost(A_side, B_side, int(witness["M"]), int(witness["e"]), int(witness["prime"]))
         for exclusion in entry[name]["exclusions"]:
-            if exclusion["place"] == INFINITY:
-                continue
-            p, d = int(exclusion["place"]), int(exclusion["d"])
-            largest = max(abs(A_side), abs(d), abs(B_side // d))
-            work += sum(1 + local_size(largest * p ** (4 * int(k) + 1))
-                        for c, k in exclusion["t_discs"] + exclusion["s_discs"])
+            if exclusion["place"] != INFINITY:
+                f = quartics(A_side, B_side, int(exclusion["d"]))[0]
+                work += sum(leaf_cost(f, int(exclusion["place"]), int(k))
+                            for _, k in exclusion["t_discs"] + exclusion["s_discs"])
     return work
 

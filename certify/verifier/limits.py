@@ -125,10 +125,13 @@ MAX_DISC_PRIME = 1_000_000_000
 """Largest prime p at which an exclusion by a disc cover is checked (membership witnesses, one Euler test
 each, are checked at any prime of the factorisations)."""
 
-MAX_LOCAL_WORK = 20_000
-"""Budget per certificate for the local tests of a descent (leaf tests and membership witnesses): each costs
-1 + (D/1000)² units, D the digits of the numbers it multiplies, plus ``exponentiation_cost(p)`` for an
-Euler test at a large p; about a tenth of a millisecond per unit. Charged before each test."""
+MAX_RANK_WORK = 40_000
+"""Budget per rank certificate for all its costly steps together, in units of about 0.1 ms (so about four
+seconds at the limit): the point counts (a unit per 300 residue evaluations), the Pocklington certificates
+(two units per ``exponentiation_cost`` unit), the analytic series (a unit per 30 of truncation × precision
+bits), all charged before any check runs, and the local tests of a descent (a leaf test 1 + (D/1000)² units,
+D the digits of the numbers it multiplies; a membership witness the same plus an Euler test), each charged
+before it runs. Each step also keeps its own limit above."""
 
 # --- analytic rank witnesses (certify/verifier/lseries.py, certify/verifier/intervals.py) ---
 

@@ -14,13 +14,13 @@ The argument, each step one function below:
 Every count, reduction, multiple, discrete logarithm, local test and L-series term is recomputed here.
 """
 from certify.verifier import lseries
-from certify.verifier.arith import is_prime, parse_integer
+from certify.verifier.arith import Budget, is_prime, parse_integer
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve, read_point
 from certify.verifier.curves import add_mod, change_point, count_points, discriminant, multiple_mod, reduce_point
 from certify.verifier.descent import check_descent, check_descent_size
 from certify.verifier.errors import Rejection
 from certify.verifier.limits import (MAX_CHARACTER_ELL, MAX_HINT_PRIME, MAX_PRIMALITY_WORK, MAX_PRIMES, MAX_RANK_POINTS,
-                                     MAX_WORK)
+                                     MAX_RANK_WORK, MAX_WORK)
 from certify.verifier.models import check_input_model
 from certify.verifier.primality import pocklington_work
 
@@ -54,14 +54,14 @@ def check_rank_certificate(cert: dict) -> dict:
     if independence is not None and not points:
         raise Rejection("structure", "evidence.independence must be null when the claim lists no points")
     characters = read_independence(independence) if points else None
-    check_sizes(model, characters, descent, analytic)
+    budget = check_sizes(model, characters, descent, analytic)
     checks = {"points proven independent": len(points)}
     if points:
         check_independence(model, [change_point(P, change) for P in points], *characters)
         checks["character primes"] = len(characters[2])
     bounds = []
     if descent is not None:
-        *dimensions, excluded = check_descent(a, descent)
+        *dimensions, excluded = check_descent(a, descent, budget)
         check_selmer_dimensions(selmer, dimensions)
         bounds.append(dimensions[0] + dimensions[1] - 2)
         checks["cosets of the Selmer groups excluded"] = excluded
@@ -117,12 +117,13 @@ def read_independence(entry: dict) -> tuple:
     return ell, p, primes
 
 
-def check_sizes(model, characters, descent, analytic) -> None:
+def check_sizes(model, characters, descent, analytic) -> Budget:
     """Every limit of the certificate before any count, local test or primality proof: the character primes
     (``check_character_primes``), the point counts of the characters and of the analytic witness together
     within MAX_WORK, the Pocklington certificates of the descent and of the witness's conductor together
-    within MAX_PRIMALITY_WORK, and the sizes of the descent."""
-    counts = 0
+    within MAX_PRIMALITY_WORK, the sizes of the descent, and all of these within MAX_RANK_WORK; returns
+    what is left of that budget for the local tests of the descent."""
+    counts, series = 0, 0
     if characters is not None:
         ell, p, primes = characters
         check_character_primes(model, ell, p, primes)
@@ -132,15 +133,21 @@ def check_sizes(model, characters, descent, analytic) -> None:
         check_descent_size(descent)
         certificates.append(field(descent, "pocklington", list, "evidence.descent"))
     if analytic is not None:
-        truncation = lseries.read_witness(analytic, "evidence.analytic")[2]
+        _, _, truncation, bits, _ = lseries.read_witness(analytic, "evidence.analytic")
         counts += sum(lseries.primes_up_to(truncation))
+        series = truncation * bits
         conductor = field(analytic, "conductor", dict, "evidence.analytic")
         certificates.append(field(conductor, "pocklington", list, "evidence.analytic.conductor"))
     if counts > MAX_WORK:
         raise Rejection("work", f"the point counts need more than {MAX_WORK} residue evaluations", work=counts)
-    if pocklington_work(certificates) > MAX_PRIMALITY_WORK:
+    primality = pocklington_work(certificates)
+    if primality > MAX_PRIMALITY_WORK:
         raise Rejection("primality limit", "the Pocklington certificates together need more work than the verifier "
                         "allows", limit=MAX_PRIMALITY_WORK)
+    budget = Budget(MAX_RANK_WORK, "rank work")
+    budget.spend(counts // 300 + 2 * primality + series // 30, "the point counts, primality proofs and L-series",
+                 counts=counts, primality=primality, series=series)
+    return budget
 
 
 def check_independence(model, points: list, ell: int, p: int, primes: list) -> None:
