@@ -21,8 +21,10 @@ import time
 from certify.analytic import analytic_witness
 from certify.curves import Curve, format_rational, inverse_change
 from certify.pari import pari
-from certify.rank.descent import WIDER_QUARTIC_HEIGHT, descend, descent_models, generator_points
-from certify.rank.points import SEARCH_HEIGHT, WIDER_HEIGHTS, independent_subset, prove_independent, search
+from certify.rank.descent import (DEEP_QUARTIC_HEIGHTS, WIDER_QUARTIC_HEIGHT, descend, descent_models,
+                                  generator_points)
+from certify.rank.points import (DEEP_HEIGHTS, SEARCH_HEIGHT, WIDER_HEIGHTS, independent_subset, prove_independent,
+                                 search)
 from certify.verifier import theorems
 from certify.verifier.curves import change_point
 from certify.verifier.lseries import RELIES_ON as ANALYTIC_RELIES_ON
@@ -30,6 +32,13 @@ from certify.verifier.rank import FORMAT, RELIES_ON_DESCENT, RELIES_ON_POINTS
 
 DEFAULT_SECONDS = 60.0
 """Time budget of one rank certificate when none is given."""
+
+DEEP_SEARCH_SECONDS = 3.0
+"""The most time spent on the deep searches (``deep_search``)."""
+
+GROWTH = 10
+"""How much longer each deep search step is expected to take than the one before (the bounds grow by
+about √10, and the sieves' cost as the square of the bound)."""
 
 ALARM_SHARE = 0.75
 """Share of a pending SIGALRM timer (a batch's --timeout) the budget may use: the rest is left for writing
@@ -68,6 +77,9 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
         if best is not None and i == 0:
             points += generator_points(best, WIDER_QUARTIC_HEIGHT)
         independent = independent_subset(curve, points)
+    if missing_point(best, analytic, len(independent)):
+        points += deep_search(curve, best, min(deadline, time.monotonic() + DEEP_SEARCH_SECONDS))
+        independent = independent_subset(curve, points)
     proven, independence = prove_independent(model, independent)
     if bounds and min(bounds) < len(proven):
         raise ArithmeticError("a proven upper bound is below the number of independent points: a certifier bug")
@@ -95,3 +107,29 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
         "relies_on": theorems.entries((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())
                                       + (ANALYTIC_RELIES_ON if analytic else ())),
     }
+
+
+def missing_point(descent, analytic, found: int) -> bool:
+    """Whether a point beyond those found is known to exist (an analytic order above their number: the order
+    is the rank), or probably does: a descent bound exceeding their number by an odd amount. The bound is
+    rank + dim Sha(E)[φ] + dim Sha(Ē)[φ̂], and by the parity conjecture for these Selmer groups (T. and V.
+    Dokchitser, Root numbers and parity of ranks of elliptic curves, J. reine angew. Math. 658 (2011)) the
+    bound and the rank have the same parity when Sha is finite, so an odd gap is a missing point and an even
+    one most often Sha. Only a guide for the search: nothing claimed depends on it."""
+    if analytic is not None:
+        return int(analytic["order"]) > found
+    return descent is not None and (descent.bound - found) % 2 == 1
+
+
+def deep_search(curve, descent, until: float) -> list:
+    """Points from searches of growing height, on the quartics of the descent's local generators and on
+    the curve, each made only when it is expected (GROWTH times the one before) to end before ``until``."""
+    points, previous = [], None
+    steps = [(generator_points, height) for height in DEEP_QUARTIC_HEIGHTS] if descent is not None else []
+    for function, height in steps + [(search, height) for height in DEEP_HEIGHTS]:
+        now = time.monotonic()
+        if now >= until or (previous is not None and now + GROWTH * previous > until):
+            break
+        points += function(descent, height) if function is generator_points else function(curve, height)
+        previous = time.monotonic() - now
+    return points

@@ -49,6 +49,10 @@ WIDER_QUARTIC_HEIGHT = 30_000
 fewer than the descent's bound. The cost grows as the square of the bound: on one quartic of a curve of
 conductor 66, 0.01 s at 10⁴, 0.13 s at 10⁵ and 11 s at 10⁶."""
 
+DEEP_QUARTIC_HEIGHTS = (100_000, 300_000, 1_000_000)
+"""Bounds of the searches on the quartics of the local generators when a point is known to be missing or
+probably is (``certify.rank.certificate.DEEP_SEARCH_SECONDS`` bounds their time)."""
+
 CHART_DISCS = 5000
 """Most discs examined in one chart of one disc cover before the prime is given up for that element: an
 exclusion at p lists at least p discs unless the whole chart is one leaf, so the primes of b(a² − 4b)
