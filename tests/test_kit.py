@@ -79,13 +79,14 @@ def test_the_kit_is_a_readable_zip_with_only_the_genuine_members(kit):
 
 
 def test_the_kit_runs_on_a_bare_interpreter_from_an_empty_folder(kit, tmp_path):
-    """Accepts all 14 demo certificates, prints the bundle digest and the source digest of what it carries."""
+    """Accepts all 32 demo certificates (four kinds for each of eight curves), prints the bundle digest and
+    the source digest of what it carries."""
     from certify.verifier.kit import package_files, source_digest
 
     run = run_bare(kit, "--quiet", cwd=tmp_path)
     assert run.returncode == 0, run.stderr
     lines = run.stdout.strip().split("\n")
-    assert sum(line.startswith("accepted: ") for line in lines) == len(DEMO) == 14
+    assert sum(line.startswith("accepted: ") for line in lines) == len(DEMO) == 32
     assert bundle_digest(kit) in lines[-1] and source_digest(package_files()) in lines[-1], lines[-1]
     print(f"kit run by {BARE}")
 
@@ -93,7 +94,7 @@ def test_the_kit_runs_on_a_bare_interpreter_from_an_empty_folder(kit, tmp_path):
 def test_jsonl_and_expect_in_the_kit(kit, tmp_path):
     run = run_bare(kit, "--jsonl", "--expect", bundle_digest(kit), cwd=tmp_path)
     rows = [json.loads(line) for line in run.stdout.split("\n") if line]
-    assert run.returncode == 0 and rows[-1]["members"] == 14 and rows[-1]["digest"] == bundle_digest(kit)
+    assert run.returncode == 0 and rows[-1]["members"] == len(DEMO) == 32 and rows[-1]["digest"] == bundle_digest(kit)
 
 
 def test_a_member_edited_inside_the_kit_is_rejected(kit, tmp_path):

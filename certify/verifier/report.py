@@ -156,13 +156,13 @@ def rank_claim_lines(cert: dict) -> list:
         sentences = [f"{rank_claim(claim)}" + (" (E(Q) is finite): " if upper == "0" else ": ")
                      + (f"{found}, and " if points else "") + " and ".join(witnesses) + "."]
     if upper is not None and lower != upper:
-        if descent_bound == int(upper):
+        if analytic is not None and analytic["order"] == upper:
+            sentences.append("The bounds do not meet, so this certificate does not determine the rank: no point of "
+                             "infinite order was found to match the order of vanishing.")
+        else:
             sentences.append("The descent did not close, so this certificate does not determine the rank: the "
                              "Tate–Shafarevich groups of E or Ē have elements of order 2 that it cannot rule out, "
                              "or E(Q) has points too large to have been found.")
-        else:
-            sentences.append("The bounds do not meet, so this certificate does not determine the rank: no point of "
-                             "infinite order was found to match the order of vanishing.")
     lines = [line for sentence in sentences for line in textwrap.wrap(sentence, WIDTH - 16)]
     lines += [line for i, (x, y) in enumerate(points, 1)
               for line in textwrap.wrap(f"P{i} = ({x}, {y})", WIDTH - 16, subsequent_indent="     ")]
