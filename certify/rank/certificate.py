@@ -122,14 +122,18 @@ def missing_point(descent, analytic, found: int) -> bool:
 
 
 def deep_search(curve, descent, until: float) -> list:
-    """Points from searches of growing height, on the quartics of the descent's local generators and on
-    the curve, each made only when it is expected (GROWTH times the one before) to end before ``until``."""
-    points, previous = [], None
-    steps = [(generator_points, height) for height in DEEP_QUARTIC_HEIGHTS] if descent is not None else []
-    for function, height in steps + [(search, height) for height in DEEP_HEIGHTS]:
-        now = time.monotonic()
-        if now >= until or (previous is not None and now + GROWTH * previous > until):
-            break
-        points += function(descent, height) if function is generator_points else function(curve, height)
-        previous = time.monotonic() - now
+    """Points from searches of growing height, on the quartics of the descent's local generators and then on
+    the curve; in each sequence a step is made only when it is expected (GROWTH times the one before) to end
+    before ``until``."""
+    quartic_steps = [lambda h=height: generator_points(descent, h) for height in DEEP_QUARTIC_HEIGHTS] if descent else []
+    curve_steps = [lambda h=height: search(curve, h) for height in DEEP_HEIGHTS]
+    points = []
+    for steps in (quartic_steps, curve_steps):
+        previous = 0.0
+        for step in steps:
+            start = time.monotonic()
+            if start + GROWTH * previous >= until:
+                break
+            points += step()
+            previous = time.monotonic() - start
     return points

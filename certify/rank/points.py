@@ -32,7 +32,7 @@ WIDER_HEIGHTS = (100_000, 1_000_000)
 (only the first of them when there is no upper bound). PARI's sieve takes about 1.5 ms and 25 ms per
 curve for these on the curves of conductor below 1000."""
 
-DEEP_HEIGHTS = (10_000_000,)
+DEEP_HEIGHTS = (3_000_000, 10_000_000)
 """Bounds of the searches on the curve when a point is known to be missing or probably is."""
 
 HEIGHT_CANDIDATES = 40
