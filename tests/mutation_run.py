@@ -57,6 +57,9 @@ _ISOGENY = ("tests/test_isogeny_kohel.py", "tests/test_isogeny_hostile.py", "tes
             "tests/test_isogeny_traps.py")
 _CONDUCTOR = ("tests/test_conductor_local.py", "tests/test_primality.py", "tests/test_conductor_traps.py",
               "tests/test_conductor_hostile.py")
+_RANK = ("tests/test_rank_hostile.py", "tests/test_descent_lemmas.py", "tests/test_rank_hostile_cost.py",
+         "tests/test_rank_examples.py")
+_ANALYTIC = ("tests/test_analytic.py", "tests/test_frobenius_hints.py", "tests/test_analytic_hostile.py")
 _FILES = ("tests/test_hostile_json.py", "tests/test_hostile_stores.py", "tests/test_hostile_printing.py",
           "tests/test_report.py", "tests/test_digest.py", "tests/test_bundle.py", "tests/test_kit.py")
 
@@ -79,6 +82,10 @@ TESTS = {
     "primality.py": _CONDUCTOR,
     "tate.py": _CONDUCTOR,
     "conductor.py": _CONDUCTOR,
+    "rank.py": _RANK,
+    "descent.py": _RANK,
+    "lseries.py": _ANALYTIC,
+    "intervals.py": _ANALYTIC,
     "certificate.py": _files(("tests/test_hostile_json.py", "tests/test_soundness_spellings.py"), _TORSION, _ISOGENY),
     "errors.py": ("tests/test_report.py", "tests/test_hostile_printing.py", "tests/test_cli.py"),
     "limits.py": ("tests/test_soundness_limits.py", "tests/test_hostile_cost.py", "tests/test_hostile_memory.py",
@@ -97,7 +104,7 @@ Left out for time, since a surviving mutant costs the whole list: the table and 
 mathematical modules; test_hostile_cost runs for limits.py."""
 
 MATHEMATICAL = ("arith.py", "curves.py", "torsion.py", "isogeny.py", "models.py", "primality.py", "tate.py",
-                "conductor.py")
+                "conductor.py", "rank.py", "descent.py", "lseries.py", "intervals.py")
 """The modules whose constants in conditions are mutated (elsewhere only the module-level constants), and
 from which the quick sample is drawn."""
 
