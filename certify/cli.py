@@ -150,7 +150,7 @@ def parser() -> argparse.ArgumentParser:
     batch = commands.add_parser("batch", help="certify every curve of a file into a directory or .sqlite store")
     batch.add_argument("file", metavar="FILE", help="one CURVE per line, optionally followed by a label")
     batch.add_argument("-o", "--output", metavar="OUT", required=True, help="a directory, or a file ending in .sqlite")
-    batch.add_argument("--only", choices=("torsion", "isogeny-class"), help="write only this kind of certificate")
+    batch.add_argument("--only", choices=("torsion", "isogeny-class", "conductor", "rank"), help="write only this kind of certificate")
     add_run_options(batch)
     audit = commands.add_parser("audit", help="check another program's torsion and isogeny claims (CSV or JSONL)")
     audit.add_argument("claims", metavar="CLAIMS", help="columns: curve, and any of label, torsion_group, "
