@@ -152,9 +152,9 @@ def parser() -> argparse.ArgumentParser:
     batch.add_argument("-o", "--output", metavar="OUT", required=True, help="a directory, or a file ending in .sqlite")
     batch.add_argument("--only", choices=("torsion", "isogeny-class", "conductor", "rank"), help="write only this kind of certificate")
     add_run_options(batch)
-    audit = commands.add_parser("audit", help="check another program's torsion and isogeny claims (CSV or JSONL)")
+    audit = commands.add_parser("audit", help="check another program's torsion, isogeny, conductor and rank claims (CSV or JSONL)")
     audit.add_argument("claims", metavar="CLAIMS", help="columns: curve, and any of label, torsion_group, "
-                       "curves_in_class, cyclic_degrees_from_curve, class_members (see the README)")
+                       "curves_in_class, cyclic_degrees_from_curve, class_members, conductor, rank (see the README)")
     audit.add_argument("-o", "--output", metavar="FILE", help="write the report here (default: stdout)")
     audit.add_argument("--format", choices=("csv", "jsonl"), dest="form", help="default: csv, or jsonl for -o *.jsonl")
     audit.add_argument("--certificates", metavar="DIR", default="audit-certificates",
