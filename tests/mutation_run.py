@@ -57,7 +57,7 @@ _ISOGENY = ("tests/test_isogeny_kohel.py", "tests/test_isogeny_hostile.py", "tes
             "tests/test_isogeny_traps.py")
 _CONDUCTOR = ("tests/test_conductor_local.py", "tests/test_primality.py", "tests/test_conductor_traps.py",
               "tests/test_conductor_hostile.py")
-_RANK = ("tests/test_rank_hostile.py", "tests/test_descent_lemmas.py", "tests/test_rank_hostile_cost.py",
+_RANK = ("tests/test_rank_claim_tampering.py", "tests/test_rank_hostile.py", "tests/test_descent_lemmas.py", "tests/test_rank_hostile_cost.py",
          "tests/test_rank_examples.py")
 _ANALYTIC = ("tests/test_analytic.py", "tests/test_frobenius_hints.py", "tests/test_analytic_hostile.py")
 _FILES = ("tests/test_hostile_json.py", "tests/test_hostile_stores.py", "tests/test_hostile_printing.py",
