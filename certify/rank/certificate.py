@@ -104,8 +104,8 @@ def certify_rank(a, given=None, seconds: float = DEFAULT_SECONDS) -> dict:
             "descent": None if best is None else best.entry,
             "analytic": analytic,
         },
-        "relies_on": theorems.entries((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())
-                                      + (ANALYTIC_RELIES_ON if analytic else ())),
+        "relies_on": theorems.entries(dict.fromkeys((RELIES_ON_POINTS if proven else ()) + (RELIES_ON_DESCENT if best else ())
+                                                    + (ANALYTIC_RELIES_ON if analytic else ()))),
     }
 
 
