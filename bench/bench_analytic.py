@@ -3,10 +3,12 @@
 For the first curves of Cremona's conductor < 1000 table (tests/data/conductor_lt_1000.txt) and the first
 curves of the random sample of conductor 100,000–499,999 (tests/data/rank_100000_499999.txt), in one process:
 build the witness (``certify.analytic.analytic_witness``, the conductor certificate it embeds included, and
-again with that certificate given), check it (``certify.verifier.lseries.check_analytic_witness``), and run
-cypari2's ``ellinit`` + ``ellanalyticrank`` on the same coefficients; prints milliseconds per curve, the
-share of curves with a witness, and the truncation points and precisions used. Checks on the way that the
-proven order is cypari2's analytic rank, so the figures are about correct runs.
+again with that certificate given), check it (``certify.verifier.lseries.check_analytic_witness``), check it
+again with its Frobenius hints removed (every a_p counted), time the a_p for p ≤ M alone both ways
+(``frobenius_traces``), and run cypari2's ``ellinit`` + ``ellanalyticrank`` on the same coefficients; prints
+milliseconds per curve, the share of curves with a witness, the truncation points, precisions and numbers of
+hints used. Checks on the way that the proven order is cypari2's analytic rank, so the figures are about
+correct runs.
 
     python bench/bench_analytic.py [table curves, default 200] [large-conductor curves, default 50]
 """
@@ -20,7 +22,8 @@ sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent.parent / "tests")
 from certify.analytic import analytic_witness  # noqa: E402
 from certify.conductor import certify_conductor  # noqa: E402
 from certify.pari import pari  # noqa: E402
-from certify.verifier.lseries import check_analytic_witness  # noqa: E402
+from certify.verifier.conductor import check_conductor_evidence  # noqa: E402
+from certify.verifier.lseries import check_analytic_witness, frobenius_traces, read_hints  # noqa: E402
 from conductor_reference import DATA, fixture_rows  # noqa: E402
 
 
@@ -53,6 +56,15 @@ def run(name: str, curves: list) -> None:
     print(f"  build the witness (conductor certificate given)  {ms(build_seconds)}")
     print(f"  check the witness (check_analytic_witness)       {ms(check_seconds, len(proven))}   "
           f"{check_seconds / len(proven) / (pari_seconds / count):6.2f}x ellanalyticrank")
+    unhinted = [(a, {**w, "frobenius_hints": []}) for a, w in proven]
+    _, unhinted_seconds = timed(lambda pair: check_analytic_witness(pair[0], pair[1], "evidence.analytic"), unhinted)
+    hints = sorted(len(w["frobenius_hints"]) for _, w in proven)
+    print(f"  check without the hints (every a_p counted)      {ms(unhinted_seconds, len(proven))}   "
+          f"hints per witness median {hints[len(hints) // 2]}, max {hints[-1]}")
+    stages = [(check_conductor_evidence(a, w["conductor"], "conductor"), w) for a, w in proven]
+    for label, with_hints in (("a_p for p <= M, with the hints", True), ("a_p for p <= M, all counted  ", False)):
+        _, seconds = timed(lambda stage: traces(*stage, with_hints), stages)
+        print(f"    {label}              {ms(seconds, len(proven))}")
     for order, entries in by_order.items():
         if entries:
             subset = [(a, w) for a, w in proven if w["order"] == order]
@@ -62,6 +74,14 @@ def run(name: str, curves: list) -> None:
             print(f"    order {order}: check {ms(seconds, len(subset))}; truncation median {truncations[len(entries) // 2]}, "
                   f"max {truncations[-1]}; precision median {bits[len(entries) // 2]}, max {bits[-1]} bits")
     print(f"  cypari2 ellinit + ellanalyticrank                {ms(pari_seconds)}   (uncertified)")
+
+
+def traces(conductor_data: tuple, entry: dict, with_hints: bool) -> dict:
+    """The verifier's a_p for p ≤ M of the witness, with its Frobenius hints or every one counted."""
+    model, _, local = conductor_data
+    truncation = int(entry["truncation"])
+    hints = read_hints(entry["frobenius_hints"], truncation, "hints") if with_hints else []
+    return frobenius_traces(model, local, truncation, hints)
 
 
 def rank_rows(name: str) -> list:

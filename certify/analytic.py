@@ -9,6 +9,11 @@ reduction types at the bad ones; E₁ from mpmath. Then it picks the precision b
 of the test and the value, with a margin) and the least truncation point M whose tails the verifier's own
 ``check_truncation`` accepts. Analytic rank 2 or more, or a value too small to separate from 0, gives no
 witness: nothing is then proven.
+
+Frobenius hints, so that the verifier need not count Ẽ(F_p) at the larger primes: at each good prime
+HINT_THRESHOLD < p ≤ M with N = p + 1 − a_p > 4√p (a_p by PARI's ellap), the first point of order N among
+those with x = 0, 1, 2, … (PARI's polrootsmod for y, ellgroup and ellorder over F_p), tried at HINT_ATTEMPTS
+abscissae at most; none when Ẽ(F_p) is not cyclic or no such point turns up. The choice is deterministic.
 """
 from __future__ import annotations
 
@@ -18,7 +23,7 @@ from fractions import Fraction
 import mpmath
 
 from certify.conductor import certify_conductor
-from certify.pari import frobenius_trace
+from certify.pari import frobenius_trace, pari
 from certify.verifier.errors import Rejection
 from certify.verifier.limits import MAX_TRUNCATION
 from certify.verifier.lseries import (TRACE_AT_BAD_PRIME, check_truncation, dirichlet_coefficients, primes_up_to,
@@ -39,6 +44,14 @@ ESTIMATE_BITS = 60
 ZERO = 2.0 ** -36
 """A floating-point test or value smaller than this is taken for 0 (the estimate errs by about 10⁻¹³)."""
 
+HINT_THRESHOLD = 300
+"""Frobenius hints only at primes above this: below it the verifier counts Ẽ(F_p) as fast as it checks a
+hint (a few multiples of a point, each some 30 group operations; see bench/bench_analytic.py)."""
+
+HINT_ATTEMPTS = 12
+"""Most abscissae tried for a point of order N = #Ẽ(F_p): in a cyclic group a point is a generator with
+probability φ(N)/N, above 1/5 for N < 30,030."""
+
 
 def analytic_witness(a, conductor_certificate: dict | None = None) -> dict | None:
     """The analytic witness entry for the curve with coefficients ``a`` (Fractions), or None when the analytic
@@ -55,12 +68,52 @@ def analytic_witness(a, conductor_certificate: dict | None = None) -> dict | Non
         order, bits = found
         truncation = least_truncation(conductor, bits, test_point)
         entry = {"conductor": cert["evidence"], "order": str(order), "root_number": str((-1) ** order),
-                 "truncation": str(truncation), "precision_bits": str(bits), "test_point": str(test_point)}
+                 "truncation": str(truncation), "precision_bits": str(bits), "test_point": str(test_point),
+                 "frobenius_hints": frobenius_hints(model, bad, truncation)}
         try:
             read_witness(entry, "analytic")
         except Rejection:
             return None
         return entry
+    return None
+
+
+def frobenius_hints(model, bad, truncation: int, threshold: int = HINT_THRESHOLD) -> list:
+    """The hint entries [{"prime", "trace", "point"}] for the good primes threshold < p ≤ M where
+    ``frobenius_hint`` finds one."""
+    hints = []
+    for p in primes_up_to(truncation):
+        if p > threshold and p not in bad:
+            hint = frobenius_hint(model, p)
+            if hint is not None:
+                hints.append(hint)
+    return hints
+
+
+def frobenius_hint(model, p: int) -> dict | None:
+    """{"prime": p, "trace": a_p, "point": [x, y]} with (x, y) a point of Ẽ(F_p) of order N = p + 1 − a_p on
+    the integral model at the good prime p, or None when N ≤ 4√p (the verifier could not single out N), when
+    Ẽ(F_p) is not cyclic, or when no point of order N is met at the first HINT_ATTEMPTS abscissae x = 0, 1, …
+    that carry points (y the least root of the equation modulo p)."""
+    trace = frobenius_trace(model, p)
+    count = p + 1 - trace
+    if count * count <= 16 * p:
+        return None
+    curve = pari.ellinit(list(model), p)
+    if len(pari.ellgroup(curve)) > 1:
+        return None
+    a1, a2, a3, a4, a6 = model
+    attempts = 0
+    for x in range(p):
+        roots = pari.polrootsmod(pari.Pol([1, a1 * x + a3, -(x ** 3 + a2 * x * x + a4 * x + a6)]), p)
+        if not len(roots):
+            continue
+        y = int(pari.lift(roots[0]))
+        if int(pari.ellorder(curve, [x, y], count)) == count:
+            return {"prime": str(p), "trace": str(trace), "point": [str(x), str(y)]}
+        attempts += 1
+        if attempts == HINT_ATTEMPTS:
+            return None
     return None
 
 

@@ -240,12 +240,14 @@ def test_rank_two_gets_no_witness_and_forced_claims_fail():
 
 
 def forced_entry(a: tuple, order: int, bits: int = 32, test_point: Fraction = Fraction(6, 5)) -> dict:
-    """A witness entry claiming the given order with a truncation the verifier accepts."""
+    """A witness entry claiming the given order with a truncation the verifier accepts, and no Frobenius hints
+    (every a_p counted)."""
     from certify.analytic import least_truncation
     cert = certify_conductor(exact(a))
     truncation = least_truncation(int(cert["claim"]["conductor"]), bits, test_point)
     return {"conductor": cert["evidence"], "order": str(order), "root_number": str((-1) ** order),
-            "truncation": str(truncation), "precision_bits": str(bits), "test_point": str(test_point)}
+            "truncation": str(truncation), "precision_bits": str(bits), "test_point": str(test_point),
+            "frobenius_hints": []}
 
 
 # --- hostile witnesses ---

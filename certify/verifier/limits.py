@@ -136,9 +136,10 @@ before it runs. Each step also keeps its own limit above."""
 # --- analytic rank witnesses (certify/verifier/lseries.py, certify/verifier/intervals.py) ---
 
 MAX_TRUNCATION = 12_000
-"""Largest truncation point M of the L-series: a_p is counted at every prime up to M. At 32 bits and the
-test point 6/5, a conductor of 500,000 needs M ≈ 3,650, one of 10⁶ M = 5,239 and one of 3·10⁶ M = 9,256
-(MAX_ANALYTIC_COUNT_WORK stops at M ≈ 9,300)."""
+"""Largest truncation point M of the L-series: a_p is needed at every prime up to M, counted or read from a
+Frobenius hint. At 32 bits and the test point 6/5, a conductor of 500,000 needs M ≈ 3,650, one of 10⁶
+M = 5,239 and one of 3·10⁶ M = 9,256 (MAX_ANALYTIC_COUNT_WORK stops counts alone at M ≈ 9,300; hints at the
+larger primes reach further)."""
 
 MAX_PRECISION_BITS = 128
 """Largest claimed precision b (the tails must be below 2^−b; the series are summed with b + 2·bits(M) + 10
@@ -149,8 +150,17 @@ MAX_ANALYTIC_SERIES_WORK = 400_000
 b terms; one to two seconds at the limit."""
 
 MAX_ANALYTIC_COUNT_WORK = 5_000_000
-"""Budget for the point counts of an analytic witness, in residue evaluations: Σ p over the primes p ≤ M,
-computed from M before any count (about two seconds at the limit)."""
+"""Budget for the a_p of an analytic witness, in residue evaluations: Σ p over the primes p ≤ M without a
+Frobenius hint (one count each) plus FROBENIUS_HINT_WORK per hint, computed from M and the hinted primes
+before any count or hint check (about two seconds at the limit). A witness lists at most one hint per prime
+p ≤ M, the primes strictly increasing (so at most π(MAX_TRUNCATION) = 1,438 hints), each refused at once
+otherwise."""
+
+FROBENIUS_HINT_WORK = 1_500
+"""Residue evaluations charged for one Frobenius hint, a bound for its check at any p ≤ MAX_TRUNCATION:
+N = p + 1 − a_p < 2p + 2 < 2^15 is factored by trial division (under 160 steps) and multiplied into the
+point at most ω(N) + 1 ≤ 6 times by numbers below 2^15, each at most 30 group operations of Ẽ(F_p)
+costing about seven residue evaluations; a genuine hint, with ω(N) of 2 or 3, takes about a quarter of that."""
 
 MAX_TEST_POINT_DENOMINATOR = 1000
 """Largest denominator of the functional-equation test point A, which must lie in (1, 2]."""

@@ -19,21 +19,32 @@ w = −1 then S(cA) − S(c/A) = 0 for every A. So, for a test point A > 1,
 By Gross–Zagier (1986) and Kolyvagin (1988, 1990), with the auxiliary twists of Bump–Friedberg–Hoffstein
 (1990) and Murty–Murty (1991), rank E(Q) then equals that order.
 
+Frobenius hints spare the verifier most point counts. A hint gives, for a prime p ≤ M of good reduction,
+a trace t and a point P = (x, y) of Ẽ(F_p) on the minimal model (residues modulo p). The verifier checks
+that P lies on Ẽ modulo p, that N = p + 1 − t satisfies |t| ≤ 2√p (exactly: t² ≤ 4p), that N·P = O and
+(N/r)·P ≠ O for every prime r | N (found by trial division, N < 2p + 2), so that P has order exactly N,
+and that N > 4√p (exactly: N² > 16p). Then #Ẽ(F_p) = N: by Lagrange's theorem ord(P) = N divides
+#Ẽ(F_p), by Hasse's theorem #Ẽ(F_p) lies in [p + 1 − 2√p, p + 1 + 2√p] (H. Hasse 1936; Silverman, *The
+Arithmetic of Elliptic Curves*, 2nd ed., V.1.1), an interval of length 4√p < N which therefore holds at
+most one multiple of N, and N itself lies in it. So a_p = t, exactly; a wrong trace cannot pass, since
+#Ẽ(F_p) = kN with k ≠ 1 would put two multiples of N in the interval. Primes without a hint are counted.
+
 The check, one function each: the entry's sizes within the limits (before any work); the conductor, the
 minimal model and the reduction types by the conductor checks (``certify.verifier.conductor``); the
-truncation point M large enough that every tail is below 2^−b for the claimed precision b; a_n for n ≤ M
-from the verifier's own counts; the two enclosures, each excluding 0.
+truncation point M large enough that every tail is below 2^−b for the claimed precision b; a_p for p ≤ M
+from the Frobenius hints or the verifier's own counts, and from them a_n for n ≤ M; the two enclosures,
+each excluding 0.
 """
 from fractions import Fraction
 
-from certify.verifier.arith import parse_integer, parse_rational
+from certify.verifier.arith import parse_integer, parse_rational, prime_factors
 from certify.verifier.certificate import field
 from certify.verifier.conductor import check_conductor_evidence, conductor_of
-from certify.verifier.curves import count_points
+from certify.verifier.curves import count_points, multiple_mod
 from certify.verifier.errors import Rejection
 from certify.verifier.intervals import Interval, exp_neg, exponential_integral, pi, square_root
-from certify.verifier.limits import (MAX_ANALYTIC_COUNT_WORK, MAX_ANALYTIC_SERIES_WORK, MAX_PRECISION_BITS,
-                                     MAX_TEST_POINT_DENOMINATOR, MAX_TRUNCATION)
+from certify.verifier.limits import (FROBENIUS_HINT_WORK, MAX_ANALYTIC_COUNT_WORK, MAX_ANALYTIC_SERIES_WORK,
+                                     MAX_PRECISION_BITS, MAX_TEST_POINT_DENOMINATOR, MAX_TRUNCATION)
 
 RELIES_ON = ("modularity", "l-series-at-one", "hasse-bound", "gross-zagier", "kolyvagin", "interval-bounds",
              "tate-algorithm", "ogg-formula", "reduced-minimal-models", "pocklington-primality",
@@ -57,16 +68,17 @@ def check_analytic_witness(a, entry: dict, where: str) -> int:
 
         {"conductor": {"minimal_model": …, "discriminant_factorisation": […], "pocklington": […]},
          "order": "0" | "1", "root_number": "1" | "-1",
-         "truncation": "M", "precision_bits": "b", "test_point": "A"}
+         "truncation": "M", "precision_bits": "b", "test_point": "A",
+         "frobenius_hints": [{"prime": "p", "trace": "a_p", "point": ["x", "y"]}, …]}
 
-    the conductor fields being those of a conductor certificate's evidence."""
-    order, root_number, truncation, bits, test_point = read_witness(entry, where)
+    the conductor fields being those of a conductor certificate's evidence, the hints possibly none."""
+    order, root_number, truncation, bits, test_point, hints = read_witness_and_hints(entry, where)
     model, _, local = check_conductor_evidence(a, field(entry, "conductor", dict, where), f"{where}.conductor")
     conductor = conductor_of(local)
     check_root_number_claim(order, root_number)
     check_truncation(conductor, truncation, bits, test_point)
-    coefficients = dirichlet_coefficients(frobenius_traces(model, local, truncation), {data.prime for data in local},
-                                          truncation)
+    coefficients = dirichlet_coefficients(frobenius_traces(model, local, truncation, hints),
+                                          {data.prime for data in local}, truncation)
     sign_test, value = analytic_intervals(coefficients, conductor, order, bits, test_point)
     check_root_number(order, sign_test)
     check_nonvanishing(order, value)
@@ -76,9 +88,16 @@ def check_analytic_witness(a, entry: dict, where: str) -> int:
 # --- reading, with the limits first ---
 
 def read_witness(entry: dict, where: str) -> tuple:
-    """(order, root number, M, b, A) from the entry, refused at once over the limits: M ≤ MAX_TRUNCATION,
-    1 ≤ b ≤ MAX_PRECISION_BITS, M·b ≤ MAX_ANALYTIC_SERIES_WORK, Σ_{p ≤ M} p ≤ MAX_ANALYTIC_COUNT_WORK, and
-    1 < A ≤ 2 with a denominator of at most MAX_TEST_POINT_DENOMINATOR."""
+    """(order, root number, M, b, A) from the entry, refused at once over any limit (``read_witness_and_hints``,
+    whose Frobenius hints it leaves out)."""
+    return read_witness_and_hints(entry, where)[:5]
+
+
+def read_witness_and_hints(entry: dict, where: str) -> tuple:
+    """(order, root number, M, b, A, hints) from the entry, refused at once over the limits: M ≤ MAX_TRUNCATION,
+    1 ≤ b ≤ MAX_PRECISION_BITS, M·b ≤ MAX_ANALYTIC_SERIES_WORK, 1 < A ≤ 2 with a denominator of at most
+    MAX_TEST_POINT_DENOMINATOR, the Frobenius hints as ``read_hints`` reads them, and their count work
+    (``hinted_count_work``) within MAX_ANALYTIC_COUNT_WORK."""
     if not isinstance(entry, dict):
         raise Rejection("structure", f"{where} must be an object")
     order = parse_integer(field(entry, "order", str, where), f"{where}.order")
@@ -102,11 +121,54 @@ def read_witness(entry: dict, where: str) -> tuple:
     if not 1 < test_point <= 2 or test_point.denominator > MAX_TEST_POINT_DENOMINATOR:
         raise Rejection("analytic limit", "the test point must be a rational in (1, 2] with a denominator of at "
                         f"most {MAX_TEST_POINT_DENOMINATOR}", test_point=str(test_point))
-    work = sum(primes_up_to(truncation))
+    hints = read_hints(field(entry, "frobenius_hints", list, where), truncation, f"{where}.frobenius_hints")
+    work = hinted_count_work(truncation, hints)
     if work > MAX_ANALYTIC_COUNT_WORK:
-        raise Rejection("analytic limit", f"counting points at every prime up to the truncation point needs more "
-                        f"than {MAX_ANALYTIC_COUNT_WORK} residue evaluations", truncation=truncation, work=work)
-    return order, root_number, truncation, bits, test_point
+        raise Rejection("analytic limit", f"the point counts and Frobenius hints up to the truncation point need "
+                        f"more than {MAX_ANALYTIC_COUNT_WORK} residue evaluations", truncation=truncation,
+                        hints=len(hints), work=work)
+    return order, root_number, truncation, bits, test_point, hints
+
+
+def read_hints(entries: list, truncation: int, where: str) -> list:
+    """The Frobenius hints as [(p, t, (x, y))], refused at once unless they are at most as many as the primes
+    p ≤ M, each at a prime p ≤ M, the primes strictly increasing (so distinct). Good reduction at p, the
+    Hasse bound, the point and its order are checked once the conductor evidence is (``hinted_traces``)."""
+    primes = primes_up_to(truncation)
+    if len(entries) > len(primes):
+        raise Rejection("analytic limit", "more Frobenius hints than primes up to the truncation point",
+                        hints=len(entries), primes=len(primes), truncation=truncation)
+    allowed, hints = set(primes), []
+    for i, hint in enumerate(entries):
+        at = f"{where}[{i}]"
+        p = parse_integer(field(hint, "prime", str, at), f"{at}.prime")
+        trace = parse_integer(field(hint, "trace", str, at), f"{at}.trace")
+        point = field(hint, "point", list, at)
+        if len(point) != 2:
+            raise Rejection("structure", f"{at}.point must be a list of two residues", found=len(point))
+        x, y = (parse_integer(v, f"{at}.point[{j}]") for j, v in enumerate(point))
+        if p not in allowed:
+            raise Rejection("frobenius hint prime", "a Frobenius hint is not at a prime up to the truncation point",
+                            p=p, truncation=truncation)
+        if hints and p <= hints[-1][0]:
+            raise Rejection("frobenius hint prime", "the primes of the Frobenius hints must increase strictly",
+                            previous=hints[-1][0], p=p)
+        hints.append((p, trace, (x, y)))
+    return hints
+
+
+def hinted_count_work(truncation: int, hints: list) -> int:
+    """Residue evaluations of the a_p for p ≤ M: Σ p over the primes without a hint (one count each) plus
+    FROBENIUS_HINT_WORK per hint."""
+    hinted = {p for p, _, _ in hints}
+    return sum(p for p in primes_up_to(truncation) if p not in hinted) + FROBENIUS_HINT_WORK * len(hints)
+
+
+def count_work(entry: dict, where: str) -> int:
+    """The residue evaluations the witness ``entry`` at ``where`` needs for its a_p (``hinted_count_work``),
+    after ``read_witness_and_hints`` has refused it over any limit; for a certificate's combined budget."""
+    _, _, truncation, _, _, hints = read_witness_and_hints(entry, where)
+    return hinted_count_work(truncation, hints)
 
 
 def check_root_number_claim(order: int, root_number: int) -> None:
@@ -194,18 +256,83 @@ def points_mod_2(model) -> int:
                    if (y * y + a1 * x * y + a3 * y - x ** 3 - a2 * x * x - a4 * x - a6) % 2 == 0)
 
 
-def frobenius_traces(model, local: list, truncation: int) -> dict:
-    """{p: a_p} for the primes p ≤ M: a_p = p + 1 − #Ẽ(F_p) at good p, counted on the minimal model
-    (``count_points``; ``points_mod_2`` at p = 2), and +1, −1, 0 at the bad primes for split, non-split
-    multiplicative and additive reduction (``TRACE_AT_BAD_PRIME``)."""
+def frobenius_traces(model, local: list, truncation: int, hints: list = ()) -> dict:
+    """{p: a_p} for the primes p ≤ M: +1, −1, 0 at the bad primes for split, non-split multiplicative and
+    additive reduction (``TRACE_AT_BAD_PRIME``); at good p the trace of its Frobenius hint, once checked
+    (``hinted_traces``, all before any count), else a_p = p + 1 − #Ẽ(F_p) counted on the minimal model
+    (``count_points``; ``points_mod_2`` at p = 2)."""
     bad = {data.prime: TRACE_AT_BAD_PRIME[data.reduction] for data in local}
+    hinted = hinted_traces(model, set(bad), hints)
     traces = {}
     for p in primes_up_to(truncation):
         if p in bad:
             traces[p] = bad[p]
+        elif p in hinted:
+            traces[p] = hinted[p]
         else:
             traces[p] = p + 1 - (points_mod_2(model) if p == 2 else count_points(model, p))
     return traces
+
+
+# --- Frobenius hints ---
+
+def hinted_traces(model, bad: set, hints: list) -> dict:
+    """{p: a_p} from the Frobenius hints [(p, t, (x, y))] on the minimal model, each proven a_p = t by the
+    checks below (the argument in the module's docstring); ``bad`` is the set of primes of bad reduction."""
+    traces = {}
+    for p, trace, point in hints:
+        check_hint_reduction(p, bad)
+        count = check_hint_trace(p, trace)
+        check_hint_point(model, p, point)
+        check_hint_order(model, p, point, count)
+        traces[p] = trace
+    return traces
+
+
+def check_hint_reduction(p: int, bad: set) -> None:
+    """p is a prime of good reduction: it is not among the primes of the minimal discriminant, which the
+    conductor checks have proven to be all of them."""
+    if p in bad:
+        raise Rejection("frobenius hint prime", "a Frobenius hint is at a prime of bad reduction", p=p)
+
+
+def check_hint_trace(p: int, trace: int) -> int:
+    """N = p + 1 − t, returned, with t² ≤ 4p (Hasse's bound, so N lies in the Hasse interval) and N² > 16p
+    (N > 4√p, longer than the interval, so it holds no other multiple of N)."""
+    if trace * trace > 4 * p:
+        raise Rejection("frobenius hint trace", "the trace of a Frobenius hint exceeds Hasse's bound 2 sqrt(p)",
+                        p=p, trace=trace)
+    count = p + 1 - trace
+    if count * count <= 16 * p:
+        raise Rejection("frobenius hint trace", "N = p + 1 - trace is not above 4 sqrt(p), so the order of a point "
+                        "cannot single it out in the Hasse interval", p=p, trace=trace, count=count)
+    return count
+
+
+def check_hint_point(model, p: int, point: tuple) -> None:
+    """The point is a pair of residues 0 ≤ x, y < p on the minimal model modulo p."""
+    if not all(0 <= v < p for v in point):
+        raise Rejection("frobenius hint point", "the coordinates of a Frobenius hint's point are not residues "
+                        "modulo p", p=p, point=list(point))
+    x, y = point
+    a1, a2, a3, a4, a6 = model
+    if (y * y + a1 * x * y + a3 * y - x ** 3 - a2 * x * x - a4 * x - a6) % p:
+        raise Rejection("frobenius hint point", "the point of a Frobenius hint is not on the minimal model "
+                        "modulo p", p=p, point=list(point))
+
+
+def check_hint_order(model, p: int, point: tuple, count: int) -> None:
+    """ord(P) = N in Ẽ(F_p): (N/r)·P ≠ O for each prime r | N (trial division) and N·P = O, the latter as
+    r·((N/r)·P) for the least r."""
+    multiples = {r: multiple_mod(model, count // r, point, p) for r in prime_factors(count)}
+    least = min(multiples)
+    if multiple_mod(model, least, multiples[least], p) is not None:
+        raise Rejection("frobenius hint order", "N·P is not O for the point of a Frobenius hint (N = p + 1 - trace)",
+                        p=p, count=count, point=list(point))
+    for r, multiple in multiples.items():
+        if multiple is None:
+            raise Rejection("frobenius hint order", "the point of a Frobenius hint has order a proper divisor of N: "
+                            "(N/r)·P = O", p=p, count=count, r=r, point=list(point))
 
 
 def dirichlet_coefficients(traces: dict, bad: set, truncation: int) -> list:
