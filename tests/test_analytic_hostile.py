@@ -590,9 +590,6 @@ CERTIFIER_CURVE = (0, 0, 1, 10, -1152)
 witness needs M = 10,754 > 9,318, beyond what point counts alone may reach, and carries Frobenius hints."""
 
 
-@pytest.mark.xfail(strict=True, reason="rank.check_sizes charges the witness sum(p <= M) point counts whatever "
-                   "its Frobenius hints (6,587,314 > MAX_WORK), so a genuine hinted witness the certifier emits is "
-                   "refused by 'work' and certify_checked raises NotCertifiable")
 def test_hinted_witness_beyond_the_counted_truncation_is_accepted_in_a_rank_certificate():
     from certify.analytic import analytic_witness
     assert int(pari.ellanalyticrank(pari.ellinit(list(CERTIFIER_CURVE)))[0]) == 1

@@ -134,7 +134,7 @@ def check_sizes(model, characters, descent, analytic) -> Budget:
         certificates.append(field(descent, "pocklington", list, "evidence.descent"))
     if analytic is not None:
         _, _, truncation, bits, _ = lseries.read_witness(analytic, "evidence.analytic")
-        counts += sum(lseries.primes_up_to(truncation))
+        counts += lseries.count_work(analytic, "evidence.analytic")
         series = truncation * bits
         conductor = field(analytic, "conductor", dict, "evidence.analytic")
         certificates.append(field(conductor, "pocklington", list, "evidence.analytic.conductor"))
