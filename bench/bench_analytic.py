@@ -14,7 +14,6 @@ correct runs.
 """
 import pathlib
 import sys
-import time
 from fractions import Fraction
 
 sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent.parent / "tests"))
@@ -26,12 +25,8 @@ from certify.verifier.conductor import check_conductor_evidence  # noqa: E402
 from certify.verifier.lseries import check_analytic_witness, frobenius_traces, read_hints  # noqa: E402
 from conductor_reference import DATA, fixture_rows  # noqa: E402
 
-
-def timed(function, items) -> tuple:
-    """(results, seconds) of function over the items."""
-    start = time.perf_counter()
-    results = [function(item) for item in items]
-    return results, time.perf_counter() - start
+sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent))
+from bench_conductor import timed  # noqa: E402
 
 
 def run(name: str, curves: list) -> None:
