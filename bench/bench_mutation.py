@@ -27,7 +27,7 @@ def table(results: list) -> str:
         row["seconds"] += seconds
     total = {key: sum(row[key] for row in rows.values()) for key in next(iter(rows.values()))} if rows else {}
     lines = ["Before the new tests, a mutant killed only by tests/test_mutation_survivors.py survived; after them,",
-             "the survivors are those neither killed nor explained in tests/mutation_equivalent.txt.",
+             "the survivors are those neither killed nor explained in the tests/mutation_equivalent*.txt files.",
              "| module | mutants | killed | timeout | survivors before | killed by new tests | equivalent "
              "| survivors after | seconds |",
              "| --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: |"]

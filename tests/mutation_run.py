@@ -16,7 +16,7 @@ The mutants are made on the source text from the AST (a mutant replaces the exac
 in a copy of the repository, so nothing in the working tree changes; for each one the test files that
 exercise its module (``TESTS``) run with ``pytest -x -q -p no:cacheprovider`` under a timeout. A mutant
 is *killed* when some test fails, *timeout* when the tests do not end in time (the mutant loops: also
-detected), *equivalent* when ``mutation_equivalent.txt`` beside this file gives the reason it computes
+detected), *equivalent* when a ``mutation_equivalent*.txt`` file beside this one gives the reason it computes
 the same result, and otherwise a *survivor*.
 
 The maintained mutation-testing libraries (mutmut, cosmic-ray) were set aside: both change the files of
@@ -38,11 +38,14 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 VERIFIER = "certify/verifier"
-EQUIVALENT_FILE = Path(__file__).with_name("mutation_equivalent.txt")
+EQUIVALENT_FILES = "mutation_equivalent*.txt"
+"""Beside this file, one per group of modules: ``identifier | reason`` for each mutant shown equivalent."""
 
-SURVIVOR_TESTS = ("tests/test_mutation_survivors.py",)
-"""The tests written to kill the mutants that survived the first run; they run for a mutant the module's
-tests do not kill."""
+SURVIVOR_TESTS = ("tests/test_mutation_survivors.py", "tests/test_mutation_survivors_rank.py",
+                  "tests/test_mutation_survivors_analytic.py", "tests/test_mutation_survivors_conductor.py",
+                  "tests/test_mutation_survivors_files.py")
+"""The tests written to kill the mutants that survived a first run, one file per group of modules; they
+run (those that exist) for a mutant the module's tests do not kill."""
 
 PRELOADED = ("pytest", "hypothesis", "sympy", "cypari2", "jsonschema")
 """Imported once by a forking runner, before it forks a child per mutant: none of them imports certify."""
@@ -256,10 +259,11 @@ def quick_sample(all_mutants: list, size: int) -> list:
     return sorted(candidates, key=lambda m: hashlib.sha256(m.identifier.encode()).hexdigest())[:size]
 
 
-def equivalent_reasons(path: Path = EQUIVALENT_FILE) -> dict:
-    """identifier → reason, from lines ``identifier | reason`` (``#`` starts a comment line)."""
+def equivalent_reasons(directory: Path = Path(__file__).parent) -> dict:
+    """identifier → reason, from the lines ``identifier | reason`` of every EQUIVALENT_FILES file (``#``
+    starts a comment line)."""
     reasons = {}
-    for line in path.read_text().splitlines() if path.exists() else ():
+    for line in (line for path in sorted(directory.glob(EQUIVALENT_FILES)) for line in path.read_text().splitlines()):
         if line.strip() and not line.startswith("#"):
             identifier, _, reason = line.partition(" | ")
             reasons[identifier.strip()] = reason.strip()

@@ -1,7 +1,7 @@
 """Quick mode of the verifier's mutation run (issue 15; full mode: ``python bench/bench_mutation.py``).
 
 A fixed sample of the mathematical modules' mutants (``mutation_run.quick_sample``: those with the smallest
-SHA-256 of their identifiers, mutants already shown equivalent in ``mutation_equivalent.txt`` left out)
+SHA-256 of their identifiers, mutants already shown equivalent in the ``mutation_equivalent*.txt`` files left out)
 is run against the tests of its module, each in a copy of the repository; every one must make some test
 fail (or the tests time out: the mutant makes the verifier loop). The outside source here is the rest of
 the suite: a surviving mutant means that a check of the verifier could be weakened without any test
