@@ -41,7 +41,8 @@ VERIFIER = "certify/verifier"
 EQUIVALENT_FILES = "mutation_equivalent*.txt"
 """Beside this file, one per group of modules: ``identifier | reason`` for each mutant shown equivalent."""
 
-SURVIVOR_TESTS = ("tests/test_mutation_survivors.py", "tests/test_mutation_survivors_rank.py",
+SURVIVOR_TESTS = ("tests/test_mutation_survivors.py", "tests/test_mutation_survivors_isogeny.py",
+                  "tests/test_mutation_survivors_rank.py",
                   "tests/test_mutation_survivors_analytic.py", "tests/test_mutation_survivors_conductor.py",
                   "tests/test_mutation_survivors_files.py")
 """The tests written to kill the mutants that survived a first run, one file per group of modules; they
