@@ -1,10 +1,11 @@
-"""``certify batch FILE -o OUT [--workers N] [--only KIND] [--cluster ADDRESS] [--timeout S]``.
+"""``certify batch FILE -o OUT [--workers N] [--only KIND ...] [--cluster ADDRESS] [--timeout S]``.
 
 FILE has one curve per line in the CURVE syntax; blank lines and lines beginning with ``#`` are
 skipped. An optional label follows the curve — after a tab, after two or more spaces, or after the
 closing ``]`` of a coefficient list (with optional punctuation such as ``:`` or ``,``) — and is the
 whole rest of the line. Each curve gets a certificate of every kind this installation writes (torsion,
-isogeny class, conductor, rank: ``certify.certificates.certifiers``), or the one ``--only`` names, kept in OUT
+isogeny class, conductor, rank: ``certify.certificates.certifiers``), or those ``--only`` names (the option
+may be repeated: ``--only torsion --only isogeny-class``), kept in OUT
 (see ``certify.store``) under the curve's coefficients as given, with the label and the line number
 in the certificate's ``metadata``. A curve given on two lines is certified once and reported with
 both labels. A rerun skips what OUT holds and retries the rest, failures included.
@@ -289,11 +290,11 @@ def write_results(results, store, failures: list, open_kinds: Counter, progress,
     return written
 
 
-def run_batch(path: str, out: str, workers: int | None = None, only: str | None = None,
+def run_batch(path: str, out: str, workers: int | None = None, only: str | list | None = None,
               cluster: str | None = None, timeout: float | None = None) -> int:
     """Certify the table into OUT; returns the exit status (0 all done, 1 some failed, 2 the store could not
-    be written, a full disk say, 130 interrupted)."""
-    kinds = [only] if only else list(certifiers())
+    be written, a full disk say, 130 interrupted). ``only``: a kind or a list of kinds (default: all)."""
+    kinds = ([only] if isinstance(only, str) else list(dict.fromkeys(only))) if only else list(certifiers())
     lines = read_batch(path)
     store = open_store(out)
     tasks, failures, labels, first_line = [], [], {}, {}

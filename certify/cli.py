@@ -94,8 +94,9 @@ def batch_command(args) -> int:
     from certify.certificates import certifiers
     from certify.store import StoreError
 
-    if args.only and args.only not in certifiers():
-        return fail(f"this installation cannot write {args.only} certificates")
+    for kind in args.only or ():
+        if kind not in certifiers():
+            return fail(f"this installation cannot write {kind} certificates")
     try:
         return run_batch(args.file, args.output, args.workers, args.only, args.cluster, args.timeout)
     except (BatchInputError, StoreError) as error:
@@ -150,7 +151,8 @@ def parser() -> argparse.ArgumentParser:
     batch = commands.add_parser("batch", help="certify every curve of a file into a directory or .sqlite store")
     batch.add_argument("file", metavar="FILE", help="one CURVE per line, optionally followed by a label")
     batch.add_argument("-o", "--output", metavar="OUT", required=True, help="a directory, or a file ending in .sqlite")
-    batch.add_argument("--only", choices=("torsion", "isogeny-class", "conductor", "rank"), help="write only this kind of certificate")
+    batch.add_argument("--only", action="append", choices=("torsion", "isogeny-class", "conductor", "rank"),
+                       help="write only this kind of certificate (repeat for several kinds)")
     add_run_options(batch)
     audit = commands.add_parser("audit", help="check another program's torsion, isogeny, conductor and rank claims (CSV or JSONL)")
     audit.add_argument("claims", metavar="CLAIMS", help="columns: curve, and any of label, torsion_group, "

@@ -58,8 +58,11 @@ def pari_rank_bounds(a) -> tuple:
 
 def check_against_reference(kind: str, a, cert: dict) -> None:
     """The certificate's claim against cypari2 as reference library: the torsion order (elltors), the
-    conductor (ellglobalred), the rank bounds containing ellrank's proven ones."""
-    if kind == "torsion":
+    number of curves in the isogeny class (ellisomat), the conductor (ellglobalred), the rank bounds
+    containing ellrank's proven ones."""
+    if kind == "isogeny-class":
+        assert len(cert["claim"]["curves"]) == len(pari.ellisomat(pari.ellinit(a))[0])
+    elif kind == "torsion":
         order = 1
         for n in cert["claim"]["invariants"]:
             order *= int(n)
@@ -113,6 +116,20 @@ def test_only_one_kind_writes_that_kind_alone(tmp_path, kind):
         check_against_reference(kind, json.loads(curve), json.loads(document))
     code, verdicts = verified(store)
     assert code == 0 and len(verdicts) == len(curves)
+
+
+def test_only_repeated_writes_exactly_the_kinds_named(tmp_path):
+    """``certify batch --only torsion --only isogeny-class``: one certificate of each named kind per curve and
+    none of the others, each accepted and agreeing with cypari2 (elltors, ellisomat)."""
+    curves = cremona_curves(4, start=700)
+    store = str(tmp_path / "two.sqlite")
+    run = certify("batch", batch_file(tmp_path, curves), "-o", store, "--only", "torsion", "--only",
+                  "isogeny-class", "--workers", "1")
+    assert run.returncode == 0, run.stderr
+    rows = store_rows(store)
+    assert sorted(row[1] for row in rows) == sorted(["torsion", "isogeny-class"] * len(curves))
+    for curve, kind, _, document, _ in rows:
+        check_against_reference(kind, json.loads(curve), json.loads(document))
 
 
 def test_sqlite_store_rows_labels_failures_and_retries(tmp_path):
