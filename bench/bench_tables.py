@@ -9,18 +9,21 @@ of the conductor < 1000 table (tests/data/conductor_lt_1000.txt, big classes). F
 processes are started one after the other and timed from start to exit:
 
 1. PARI, uncertified: cypari2's ellinit + elltors + ellisomat on every curve;
-2. ``certify batch FILE -o STORE.sqlite --workers 1``, both certificates per curve;
+2. ``certify batch FILE -o STORE.sqlite --workers 1 --only torsion --only isogeny-class``, the two
+   certificates per curve that answer what (1) computes;
 3. ``certify verify --quiet STORE.sqlite`` (JSON-Schema step included), one process;
 4. ``python -S -m certify.verifier --quiet STORE.sqlite``, the standard-library verifier alone.
 
-The ratios are to (1). The load average is printed before each process: the machine's 2 cores are
-shared, and any load above the benchmark's own lengthens every figure. Then the slowest curves of
+The ratios are to (1), by wall clock and by CPU time (user + system of the process and its children,
+which other jobs on the machine lengthen less). The load average is printed before each process: the
+machine's 2 cores are shared, and any load above the benchmark's own lengthens every figure. Then the slowest curves of
 each fixture, both certificates certified in this process and timed one curve at a time.
 """
 from __future__ import annotations
 
 import argparse
 import os
+import resource
 import subprocess
 import sys
 import tempfile
@@ -30,6 +33,8 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
 DATA = ROOT / "tests" / "data"
+KINDS = ("torsion", "isogeny-class")
+"""The certificates that answer what PARI's elltors + ellisomat compute."""
 FIXTURES = {"sample": DATA / "conductor_100000_499999_sample.txt", "first": DATA / "conductor_lt_1000.txt"}
 
 PARI_REFERENCE = """
@@ -53,12 +58,13 @@ def load() -> str:
     return "load " + "/".join(f"{value:.2f}" for value in os.getloadavg())
 
 
-def timed(command: list) -> tuple[float, str]:
-    """(wall-clock seconds, load average before) of one process, which must succeed."""
-    before = load()
+def timed(command: list) -> tuple[float, float, str]:
+    """(wall-clock seconds, CPU seconds, load average before) of one process, which must succeed."""
+    before, used = load(), resource.getrusage(resource.RUSAGE_CHILDREN)
     started = time.perf_counter()
     subprocess.run(command, check=True, cwd=ROOT, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-    return time.perf_counter() - started, before
+    wall, after = time.perf_counter() - started, resource.getrusage(resource.RUSAGE_CHILDREN)
+    return wall, after.ru_utime + after.ru_stime - used.ru_utime - used.ru_stime, before
 
 
 def four_figures(name: str, curves: list, folder: str) -> None:
@@ -68,17 +74,19 @@ def four_figures(name: str, curves: list, folder: str) -> None:
     store = os.path.join(folder, f"{name}.sqlite")
     runs = [
         ("PARI elltors + ellisomat (uncertified)", [sys.executable, "-c", PARI_REFERENCE, source]),
-        ("certify batch --workers 1", [sys.executable, "-m", "certify", "batch", source, "-o", store, "--workers", "1"]),
+        ("certify batch --workers 1", [sys.executable, "-m", "certify", "batch", source, "-o", store, "--workers", "1",
+                                       *(option for kind in KINDS for option in ("--only", kind))]),
         ("certify verify (schema step included)", [sys.executable, "-m", "certify", "verify", "--quiet", store]),
         ("python -S -m certify.verifier", [sys.executable, "-S", "-m", "certify.verifier", "--quiet", store]),
     ]
     print(f"{len(curves)} curves of {FIXTURES[name].name}, {2 * len(curves)} certificates, each figure one whole process:")
     reference = None
     for label, command in runs:
-        seconds, before = timed(command)
-        reference = reference or seconds
+        seconds, cpu, before = timed(command)
+        reference = reference or (seconds, cpu)
         print(f"  {label:40s} {seconds:7.2f} s  {1000 * seconds / len(curves):6.2f} ms/curve  "
-              f"{seconds / reference:5.2f}× PARI   ({before} before)", flush=True)
+              f"{seconds / reference[0]:5.2f}× PARI;  CPU {cpu:7.2f} s  {cpu / reference[1]:5.2f}× PARI   "
+              f"({before} before)", flush=True)
 
 
 def slowest(name: str, curves: list, count: int) -> None:
@@ -86,7 +94,7 @@ def slowest(name: str, curves: list, count: int) -> None:
     sys.path.insert(0, str(ROOT))
     from certify.certificates import certifiers
 
-    builders = certifiers().values()
+    builders = [certifiers()[kind] for kind in KINDS]
     times = []
     for a in curves:
         started = time.perf_counter()

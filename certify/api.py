@@ -16,6 +16,7 @@ curve is refused at once, before any search. These names are stable: the module'
 """
 from __future__ import annotations
 
+import json
 import os
 from dataclasses import dataclass
 from fractions import Fraction
@@ -215,15 +216,21 @@ class Verdict:
 
 def verify(certificate: Union[Certificate, dict, Path]) -> Verdict:
     """Recheck one certificate — an object, its JSON document, or a file holding one — exactly as
-    ``certify verify`` does (the verifier's JSON-Schema step first, then its checks)."""
+    ``certify verify`` does: a document is written out as JSON text and read back as a file would be
+    (with the verifier's limits and refusals), then checked."""
     if isinstance(certificate, (Certificate, dict)):
-        from certify.verifier.cli import check
+        from certify.verifier.cli import run_task
 
         document = certificate.document if isinstance(certificate, Certificate) else certificate
-        return _verdict(check("certificate", document, {}))
-    verdicts = verify_all(certificate)
+        try:
+            data = json.dumps(document).encode("ascii")
+        except (TypeError, ValueError, RecursionError) as error:
+            return Verdict(False, f"unreadable: not a JSON document ({type(error).__name__})", None, "certificate")
+        verdicts, where = [_verdict(result) for result in run_task(("data", "certificate", data))[0]], "the document"
+    else:
+        verdicts, where = verify_all(certificate), os.fspath(certificate)
     if len(verdicts) != 1:
-        raise CertifyError(f"{os.fspath(certificate)} holds {len(verdicts)} certificates; use verify_all")
+        raise CertifyError(f"{where} holds {len(verdicts)} certificates; use verify_all")
     return verdicts[0]
 
 

@@ -62,6 +62,29 @@ def test_write_serialise_and_verify_an_object_a_document_and_a_file(tmp_path):
     assert not verdict.accepted and verdict.reason
 
 
+def test_a_document_is_verified_as_its_file_would_be(tmp_path):
+    """api.verify on a document applies the limits and refusals of a file (``sources.parse``): a float, an
+    over-long string, nesting beyond MAX_DEPTH, a lone surrogate are refused, with the verdict the same
+    document gets as a file; a value JSON cannot hold is unreadable, never a traceback."""
+    from certify.verifier.limits import MAX_DEPTH, MAX_STRING_LENGTH
+
+    cert = api.certify_torsion([0, 0, 0, -1, 0]).document
+    nested = []
+    for _ in range(MAX_DEPTH + 1):
+        nested = [nested]
+    hostile = [dict(cert, claim={**cert["claim"], "invariants": [2.0, "2"]}),
+               dict(cert, metadata={"note": "x" * (MAX_STRING_LENGTH + 1)}),
+               dict(cert, metadata={"note": nested}),
+               dict(cert, metadata={"note": "\ud800"})]
+    for document in hostile:
+        path = tmp_path / "hostile.json"
+        path.write_bytes(json.dumps(document).encode("ascii"))
+        verdict, as_file = api.verify(document), api.verify(path)
+        assert not verdict.accepted and verdict.reason == as_file.reason and verdict.reason.startswith("unreadable")
+    verdict = api.verify(dict(cert, metadata={"note": Fraction(1, 2)}))
+    assert not verdict.accepted and verdict.reason.startswith("unreadable")
+
+
 @pytest.mark.parametrize("spec, cli_spelling", [
     ("[0,0,0,-3,2]", None),                       # singular: 4·(−3)³ + 27·2² = 0
     ([0, 0, 0, -3, 2], "[0,0,0,-3,2]"),

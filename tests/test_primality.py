@@ -49,3 +49,21 @@ def test_certificates_of_random_primes(digits):
     entries = pocklington_certificates([p])
     proven = proven_primes(read_pocklington(entries))
     assert p in proven and all(sympy.isprime(n) for n in proven)
+
+
+def test_trial_division_agrees_with_sympy_beyond_the_hint_limit():
+    """arith.is_prime (trial division by 2, 3 and 6k ± 1 up to √n), which decides the hint primes and the
+    primes of point counts, against sympy (reference library): on every n below 20,000 and within 2,000 of
+    MAX_HINT_PRIME, on the products of two primes near √MAX_HINT_PRIME, and on the range above 10⁶ where
+    the isogeny identity looks for its evaluation prime."""
+    import sympy
+
+    from certify.verifier.arith import is_prime
+    from certify.verifier.limits import MAX_HINT_PRIME
+
+    numbers = [*range(-3, 20_000), *range(MAX_HINT_PRIME - 2000, MAX_HINT_PRIME + 2000),
+               *range(10 ** 6, 10 ** 6 + 3000)]
+    reference = set(sympy.primerange(0, 10 ** 6 + 3000))
+    assert [n for n in numbers if is_prime(n) != (n in reference)] == []
+    primes = list(sympy.primerange(290, 340))
+    assert not any(is_prime(p * q) for p in primes for q in primes)

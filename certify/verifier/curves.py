@@ -145,10 +145,18 @@ def count_points(a, p: int) -> int:
     """#E(F_p) for an integral model with good reduction at the odd prime p, by a direct count.
 
     Completing the square, (2y + a1x + a3)² = 4x³ + b2x² + 2b4x + b6 =: f(x), so each x in F_p gives
-    1 + (f(x)/p) points, plus O (Silverman III.1; Washington, *Elliptic Curves*, §4.1).
+    1 + (f(x)/p) points, plus O (Silverman III.1; Washington, *Elliptic Curves*, §4.1). The last counts
+    are kept: the checks of one certificate, and the certificates of one curve, often count at the same
+    prime (one prime serving the Frobenius witnesses of several ℓ, the torsion bound and the class).
     """
     if not (p > 2 and is_prime(p)):
         raise Rejection("point count", "the prime is not an odd prime", p=p)
+    return counted_points(tuple(a), p)
+
+
+@functools.lru_cache(maxsize=512)
+def counted_points(a: tuple, p: int) -> int:
+    """count_points once its prime is checked; at most 512 counts kept (each of a model and a prime)."""
     b2, b4, b6, _ = (int(b) % p for b in b_invariants(a))
     squares = [0] * p
     for y in range(1, (p + 1) // 2):

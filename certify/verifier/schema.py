@@ -42,11 +42,15 @@ def schema(format_name: str) -> dict:
 
 
 _COMPILED = {}
+PLAIN_STRING = {"type", "minLength", "pattern", "compiled pattern", "plain string"}
+"""The keys of a compiled node that asks only for a string (of some length, matching some pattern): most
+leaves of the schemas, tested in one step by ``conforms`` (see ``check_node``)."""
 
 
 def compiled(format_name: str) -> dict:
     """The schema with every $ref replaced by the definition it names (the definitions do not refer to
-    themselves), and every keyword checked to be one implemented here; done once per format."""
+    themselves), every pattern compiled (with ``ecma_pattern``'s '$') and every keyword checked to be one
+    implemented here; done once per format."""
     if format_name not in _COMPILED:
         root = schema(format_name)
 
@@ -71,8 +75,12 @@ def compiled(format_name: str) -> dict:
                     out[key] = {name: resolve(child) for name, child in value.items()}
                 elif key in ("items", "additionalProperties"):
                     out[key] = resolve(value)
+                elif key == "pattern":
+                    out[key] = value
+                    out["compiled pattern"] = re.compile(ecma_pattern(value))
                 elif key not in ANNOTATIONS:
                     out[key] = value
+            out["plain string"] = out.get("type") == "string" and set(out) <= PLAIN_STRING
             return out
         _COMPILED[format_name] = resolve(root)
     return _COMPILED[format_name]
@@ -85,53 +93,69 @@ def schema_violations(document, most: int = 3) -> list:
             and document["format"] in SCHEMA_FILES):
         return []
     found = []
-    stack = [(document, compiled(document["format"]), "")]
+    stack = [(document, compiled(document["format"]), None)]
     while stack and len(found) < most:
         value, node, path = stack.pop()
-        for violation, children in check_node(value, node, path):
-            if violation:
-                found.append(violation)
-            stack.extend(reversed(children))
+        violations, children = check_node(value, node, path)
+        found += violations
+        stack += reversed(children)
     return found[:most]
 
 
-def check_node(value, node: dict, path: str) -> list:
-    """[(violation or None, [(child value, child schema, child path)])] for one value against one compiled
-    schema node."""
-    where = path or "/"
+def check_node(value, node: dict, path) -> tuple:
+    """([violation, …], [(child value, child schema, child path), …]) for one value against one compiled
+    schema node; a child that ``conforms`` is left out. A path is None (the document) or (parent path,
+    key), spelled out only for a violation."""
     if "type" in node and not has_type(value, node["type"]):
-        return [(f"{where}: {short(value)} is not of type {node['type']!r}", [])]
-    out = []
+        return [f"{spelled(path)}: {short(value)} is not of type {node['type']!r}"], []
+    out, children = [], []
     if "const" in node and value != node["const"]:
-        out.append((f"{where}: {node['const']!r} was expected", []))
+        out.append(f"{spelled(path)}: {node['const']!r} was expected")
     if "enum" in node and value not in node["enum"]:
-        out.append((f"{where}: {short(value)} is not one of {node['enum']!r}", []))
+        out.append(f"{spelled(path)}: {short(value)} is not one of {node['enum']!r}")
     if isinstance(value, str):
         if len(value) < node.get("minLength", 0):
-            out.append((f"{where}: {short(value)} is too short", []))
-        if "pattern" in node and not re.search(ecma_pattern(node["pattern"]), value):
-            out.append((f"{where}: {short(value)} does not match {node['pattern']!r}", []))
-    if isinstance(value, list):
+            out.append(f"{spelled(path)}: {short(value)} is too short")
+        if "pattern" in node and not node["compiled pattern"].search(value):
+            out.append(f"{spelled(path)}: {short(value)} does not match {node['pattern']!r}")
+    elif isinstance(value, list):
         if len(value) < node.get("minItems", 0):
-            out.append((f"{where}: {short(value)} should be non-empty" if node["minItems"] == 1
-                        else f"{where}: {short(value)} is too short", []))
+            out.append(f"{spelled(path)}: {short(value)} should be non-empty" if node["minItems"] == 1
+                       else f"{spelled(path)}: {short(value)} is too short")
         if "maxItems" in node and len(value) > node["maxItems"]:
-            out.append((f"{where}: {short(value)} is too long", []))
+            out.append(f"{spelled(path)}: {short(value)} is too long")
         if "items" in node:
-            out.append((None, [(item, node["items"], f"{path}/{i}") for i, item in enumerate(value)]))
-    if isinstance(value, dict):
-        missing = [key for key in node.get("required", []) if key not in value]
+            items = node["items"]
+            children = [(item, items, (path, i)) for i, item in enumerate(value) if not conforms(item, items)]
+    elif isinstance(value, dict):
+        missing = [key for key in node.get("required", ()) if key not in value]
         if missing:
-            out.append((f"{where}: {missing[0]!r} is a required property", []))
+            out.append(f"{spelled(path)}: {missing[0]!r} is a required property")
         properties = node.get("properties", {})
         extra = [key for key in value if key not in properties]
         if extra and node.get("additionalProperties", True) is False:
-            out.append((f"{where}: additional properties are not allowed ({short(extra[0])} was unexpected)", []))
-        children = [(value[key], properties[key], f"{path}/{key}") for key in value if key in properties]
+            out.append(f"{spelled(path)}: additional properties are not allowed ({short(extra[0])} was unexpected)")
+        children = [(value[key], properties[key], (path, key)) for key in value
+                    if key in properties and not conforms(value[key], properties[key])]
         if isinstance(node.get("additionalProperties"), dict):
-            children += [(value[key], node["additionalProperties"], f"{path}/{key}") for key in extra]
-        out.append((None, children))
-    return out
+            children += [(value[key], node["additionalProperties"], (path, key)) for key in extra]
+    return out, children
+
+
+def conforms(value, node: dict) -> bool:
+    """True when the node asks only for a string and the value is one that it accepts: then check_node
+    would find no violation and no child in it, and the walk can leave it out."""
+    return (node["plain string"] and isinstance(value, str) and len(value) >= node.get("minLength", 0)
+            and ("pattern" not in node or node["compiled pattern"].search(value) is not None))
+
+
+def spelled(path) -> str:
+    """'/' for the document, else '/key/index/…' from the root."""
+    keys = []
+    while path is not None:
+        path, key = path
+        keys.append(f"/{key}")
+    return "".join(reversed(keys)) or "/"
 
 
 def ecma_pattern(pattern: str) -> str:
