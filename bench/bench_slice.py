@@ -4,7 +4,8 @@ asserted.
     python bench/bench_slice.py [--file ell499.gz] [--folder /usr/share/pari/elldata]
 
 Every curve of one file of PARI's curve-data package (Debian pari-elldata; ``ell499.gz`` holds the
-5,997 curves of conductor 499,000–499,999) goes through ``certify batch --cluster`` on a two-worker
+5,997 curves of conductor 499,000–499,999) goes through ``certify batch --cluster --only torsion --only
+isogeny-class`` (the two kinds PARI's elltors and ellisomat answer) on a two-worker
 Dask LocalCluster started here (one thread per worker), into a SQLite store, and then through
 ``certify verify --quiet --workers 2``. For each: wall-clock time, curves and certificates per
 second, and the peak resident memory of the process tree (all processes together, and the largest
@@ -91,12 +92,13 @@ def main() -> None:
         source, store = os.path.join(folder, "slice.txt"), os.path.join(folder, "slice.sqlite")
         with open(source, "w") as out:
             out.write("".join("[" + ",".join(map(str, a)) + "]\n" for a in curves))
-        print(f"{len(curves)} curves of {args.file}, both certificates each")
+        print(f"{len(curves)} curves of {args.file}, a torsion and an isogeny-class certificate each")
         with LocalCluster(n_workers=2, threads_per_worker=1, dashboard_address=None, processes=True) as cluster:
             workers = [psutil.Process(worker.process.pid) for worker in cluster.workers.values()]
             before = load()
             seconds, total, largest = run_measured(
-                [sys.executable, "-m", "certify", "batch", source, "-o", store, "--cluster", cluster.scheduler_address],
+                [sys.executable, "-m", "certify", "batch", source, "-o", store, "--cluster", cluster.scheduler_address,
+                 "--only", "torsion", "--only", "isogeny-class"],
                 workers)
         certify_rate = len(curves) / seconds
         print(f"  certify batch --cluster (LocalCluster, 2 workers)  {seconds:7.1f} s  {certify_rate:6.1f} curves/s  "
