@@ -6,6 +6,12 @@ against the tests of its module, one process at a time; prints each survivor and
     python bench/bench_mutation.py torsion.py tate.py  # some modules
     python bench/bench_mutation.py --jsonl out.jsonl   # also one JSON line per mutant
     python bench/bench_mutation.py --only ids.txt      # the mutants listed (e.g. an earlier run's survivors)
+    python bench/bench_mutation.py --report a.jsonl --report b.jsonl [MODULES]   # earlier runs' table
+
+With ``--report`` the outcome of each current mutant is the last one the files record (a later file, say
+a rerun of the survivors after new tests, overrides an earlier one); a survivor that a
+``mutation_equivalent*.txt`` file now explains counts as equivalent; mutants no file records are listed as
+not run, and so are mutants whose identifier changed with the code since.
 """
 import argparse
 import json
@@ -47,7 +53,11 @@ def main() -> None:
                         "all the tests involved, plus 20)")
     parser.add_argument("--resume", action="store_true", help="keep the outcomes already in the --jsonl file "
                         "and run only the other mutants")
+    parser.add_argument("--report", action="append", metavar="JSONL",
+                        help="print the table of this earlier run (repeat for several, later ones override)")
     args = parser.parse_args()
+    if args.report:
+        return report(args.report, args.modules)
     modules = args.modules or list(mutation_run.MATHEMATICAL) + [m for m in mutation_run.TESTS
                                                                   if m not in mutation_run.MATHEMATICAL]
     extra = [name for name in mutation_run.SURVIVOR_TESTS if (mutation_run.ROOT / name).exists()]
@@ -80,6 +90,30 @@ def main() -> None:
         workspace.close()
     print(table(results))
     print(f"full run: {time.perf_counter() - start:.0f} s, one process")
+
+
+def report(paths: list, modules: list) -> None:
+    """The table, the unexplained survivors and the mutants not run, from the JSON lines of earlier runs."""
+    recorded = {}
+    for path in paths:
+        for row in map(json.loads, Path(path).read_text().splitlines()):
+            recorded[row["id"]] = row
+    reasons = mutation_run.equivalent_reasons()
+    results, missing = [], []
+    for mutant in mutation_run.mutants(mutation_run.ROOT, modules or None):
+        row = recorded.get(mutant.identifier)
+        if row is None:
+            missing.append(mutant)
+            continue
+        outcome = "equivalent" if row["outcome"] == "survived" and mutant.identifier in reasons else row["outcome"]
+        results.append((mutant, outcome, row["seconds"]))
+    print(table(results))
+    for mutant, outcome, _ in results:
+        if outcome == "survived":
+            print(f"unexplained survivor: {mutant.identifier} (line {mutant.line})")
+    for mutant in missing:
+        print(f"not run: {mutant.identifier} (line {mutant.line})")
+    print(f"{len(results)} mutants recorded, {len(missing)} not run; {sum(s for _, _, s in results):.0f} s of runs")
 
 
 if __name__ == "__main__":

@@ -275,9 +275,10 @@ def equivalent_reasons(directory: Path = Path(__file__).parent) -> dict:
     return reasons
 
 
-TEST_SECONDS = 20
-"""In a forked run, the longest one test may take (the slowest test of the lists takes a few seconds): a
-mutant that makes the verifier loop is stopped in the first test it traps rather than at the mutant's timeout."""
+TEST_SECONDS = 60
+"""In a forked run, the longest one test may take (the slowest test of the lists takes a few seconds alone,
+and several times as long when several runs share the 2 cores): a mutant that makes the verifier loop is
+stopped in the first test it traps rather than at the mutant's timeout."""
 
 TIMED_OUT = 124
 """The forked child's exit status when a test ran over TEST_SECONDS."""
