@@ -13,6 +13,8 @@ from __future__ import annotations
 import functools
 import math
 import re
+import signal
+import time
 from dataclasses import dataclass
 from fractions import Fraction
 from functools import cached_property
@@ -428,13 +430,18 @@ def _valuation(n: int, p: int) -> int:
 
 def _primes_dividing(n: int, purpose: str = "to find the minimal model") -> list[int]:
     """The prime factors of n, by PARI within FACTORING_SECONDS (the certifier may use generic algebra);
-    ``purpose`` ends the message of FactoringTooHard."""
+    ``purpose`` ends the message of FactoringTooHard. An alarm already set by the caller (the batch's
+    ``--timeout``) is kept: if it rings first it is the caller's AlarmInterrupt, else it is set again
+    afterwards for the time it had left."""
     if abs(n) <= 1:
         return []
     from cysignals.alarm import AlarmInterrupt, alarm, cancel_alarm
 
     from certify.pari import pari
 
+    outer, started = signal.getitimer(signal.ITIMER_REAL)[0], time.monotonic()
+    if outer and outer <= FACTORING_SECONDS:
+        return [int(p) for p in pari.factor(abs(n))[0]]
     try:
         alarm(FACTORING_SECONDS)
         return [int(p) for p in pari.factor(abs(n))[0]]
@@ -443,6 +450,8 @@ def _primes_dividing(n: int, purpose: str = "to find the minimal model") -> list
                                + purpose) from None
     finally:
         cancel_alarm()
+        if outer:
+            alarm(max(outer - (time.monotonic() - started), 0.001))
 
 
 def inverse_change(change: Change) -> Change:

@@ -288,3 +288,30 @@ def test_file_names_cannot_be_mistaken_for_options(tmp_path):
     (name,) = [path.name for path in out.glob("*.json")]
     assert name == "E-7_3,-10,-10,0,0.torsion.json"
     assert certify("verify", "--quiet", name, cwd=out).returncode == 0
+
+
+def test_factoring_keeps_the_alarm_of_the_batch_timeout():
+    """The batch's --timeout is a SIGALRM timer (cysignals' alarm); the certifier's factoring (PARI, under an
+    alarm of its own of FACTORING_SECONDS) must leave it running — it used to cancel it, so that a
+    certificate could run past --timeout. A shorter outer alarm rings during the work after the factoring;
+    a longer one is set again for the time it had left. The factors agree with sympy.factorint (reference
+    library)."""
+    import sympy
+    from cysignals.alarm import AlarmInterrupt, alarm, cancel_alarm
+
+    from certify.curves import FACTORING_SECONDS, _primes_dividing
+
+    n = 2 ** 64 + 1
+    try:
+        alarm(0.3)
+        started = time.monotonic()
+        with pytest.raises(AlarmInterrupt):
+            assert _primes_dividing(n) == sorted(sympy.factorint(n))
+            while time.monotonic() - started < 5:
+                pass
+        assert time.monotonic() - started < 2
+        alarm(FACTORING_SECONDS + 2)
+        assert _primes_dividing(n) == sorted(sympy.factorint(n))
+        assert FACTORING_SECONDS < signal.getitimer(signal.ITIMER_REAL)[0] <= FACTORING_SECONDS + 2
+    finally:
+        cancel_alarm()
