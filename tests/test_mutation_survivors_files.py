@@ -192,3 +192,217 @@ def test_an_object_key_that_is_not_a_string_is_refused():
     fail): a hand-built dict given to the Python API with an integer key (JSON has only string keys)."""
     failure = rejection(with_metadata({1: "x"}), "structure")
     assert failure.values["found"] == "int", str(failure)
+
+
+def test_a_list_field_over_the_length_limit_is_refused_by_verify_shaped():
+    """Kills the deleted raise of ``field``'s own length test: ``verify_shaped`` (public, for documents whose
+    shape was checked) still refuses a list field of more than the documented 10,000 entries by that field's
+    name, before the check that reads it (read_primes would refuse it only as more than 64 primes)."""
+    from certify.verifier import verify_shaped
+
+    cert = honest()
+    cert["evidence"]["primes"] = cert["evidence"]["primes"][:1] * (documented("entries in one list or object") + 1)
+    with pytest.raises(Rejection) as caught:
+        verify_shaped(cert)
+    assert caught.value.check == "list size" and "evidence.primes has more than" in caught.value.message
+
+
+def test_a_long_string_field_is_not_taken_for_a_long_list():
+    """Kills ``isinstance(value, list) -> True`` in ``field``: a string field longer than the documented
+    10,000 entries of a list is refused as the string it is (here an unknown format), not as a list, by
+    ``verify_shaped``, which leaves string lengths to check_shape."""
+    from certify.verifier import verify_shaped
+
+    cert = honest()
+    cert["format"] = "x" * (documented("entries in one list or object") + 1)
+    with pytest.raises(Rejection) as caught:
+        verify_shaped(cert)
+    assert caught.value.check == "format", str(caught.value)
+
+
+def test_a_singular_curve_is_refused_as_singular():
+    """Kills the deleted raise of read_curve: y² = x³ (discriminant 0: Silverman, III.1.4, a singular cubic is
+    no elliptic curve) in place of the honest curve is refused as "curve"."""
+    cert = honest()
+    cert["curve"] = ["0", "0", "0", "0", "0"]
+    assert "singular" in str(rejection(cert, "curve"))
+
+
+def test_a_point_spelled_as_a_string_is_refused_as_structure():
+    """Kills ``not isinstance(values, list) -> False`` in rationals: a generator written "12" (a string of
+    two characters) is refused as not a list of two numbers, not read as the point (1, 2)."""
+    cert = honest()
+    cert["claim"]["generators"][0] = "12"
+    failure = rejection(cert, "structure")
+    assert "must be a list of 2 numbers" in failure.message, str(failure)
+
+
+def test_relies_on_entries_that_are_not_objects_are_refused_as_structure():
+    """Kills ``not isinstance(obj, dict) -> False`` in ``field``: a relies_on entry that is the string "key"
+    (which contains 'key') or a number is refused as an entry without the field, not indexed as an object."""
+    for entry in ("key statement reference", 7):
+        cert = honest()
+        cert["relies_on"][0] = entry
+        assert "relies_on[0] has no field 'key'" in rejection(cert, "structure").message
+
+
+# --- schema.py, against the reference library jsonschema ---
+
+def ours(document) -> list:
+    from certify.verifier.schema import schema_violations
+
+    return schema_violations(document)
+
+
+def test_a_string_where_an_object_is_required_is_a_violation_for_both():
+    """Kills ``out.get("type") == "string" -> !=`` in compiled: the metadata block must be an object; a string
+    there (which a node marked as a plain string would let through unexamined) is a violation for the
+    reference library jsonschema and for the verifier's schema step, and the certificate is refused."""
+    cert = honest()
+    cert["metadata"] = "written by hand"
+    assert reference_violations(cert) and ours(cert)
+    assert "/metadata" in str(rejection(cert, "schema"))
+
+
+def message(violation: str) -> str:
+    """'path: message' → message."""
+    return violation.split(": ", 1)[1]
+
+
+def test_messages_for_short_lists_are_the_reference_librarys():
+    """Kills ``node["minItems"] == 1 -> !=`` in check_node: an empty list where at least one entry is required
+    "should be non-empty", a list of four coefficients where five are required "is too short", in the words
+    of the reference library jsonschema."""
+    empty, four = honest(), honest()
+    empty["evidence"]["primes"] = []
+    four["curve"] = four["curve"][:4]
+    for document in (empty, four):
+        assert [message(v) for v in ours(document)[:1]] == [message(v) for v in reference_violations(document)[:1]]
+
+
+def test_a_value_of_sixty_characters_is_shown_whole_as_the_reference_library_shows_it():
+    """Kills ``len(text) <= 60 -> <`` in short: a coefficient whose repr is exactly 60 characters is quoted
+    whole in the violation, as the reference library jsonschema quotes it; one of 61 is cut."""
+    cert = honest()
+    cert["curve"][0] = "x" * 58
+    assert len(repr(cert["curve"][0])) == 60
+    assert message(ours(cert)[0]) == message(reference_violations(cert)[0])
+    cert["curve"][0] = "x" * 59
+    assert message(ours(cert)[0]).startswith(repr("x" * 59)[:59] + "…")
+
+
+# --- sources.py and limits.py: the one reading of a file ---
+
+def padded(size: int) -> str:
+    """The honest certificate's JSON text padded with spaces (insignificant in JSON, RFC 8259 §2) to ``size``
+    bytes."""
+    text = json.dumps(honest())
+    return text[:-1] + " " * (size - len(text)) + "}"
+
+
+def test_a_file_of_the_documented_size_is_read_and_one_byte_more_is_not(tmp_path):
+    """Kills ``len(data) >= MAX_FILE_BYTES`` in read and in parse, and MAX_FILE_BYTES 20,000,000 -> 20,000,001:
+    the README documents files of 20,000,000 bytes; the honest certificate padded to exactly that is accepted,
+    one byte more is unreadable, naming the limit — from a file and from standard input."""
+    size = documented("file size")
+    verdicts = command_line(tmp_path, {"at": padded(size), "past": padded(size + 1)})
+    assert verdicts["at"]["accepted"], verdicts["at"]
+    assert verdicts["past"]["reason"].startswith("unreadable: ") and f"{size} bytes" in verdicts["past"]["reason"]
+    import subprocess
+    import sys
+
+    for text, accepted in ((padded(size), True), (padded(size + 1), False)):
+        result = subprocess.run([sys.executable, "-S", "-m", "certify.verifier", "--jsonl", "-"], capture_output=True,
+                                input=text.encode(), env=dict(__import__("os").environ, PYTHONPATH=str(README.parent)))
+        (verdict,) = assert_answered(result, jsonl=True)
+        assert verdict["accepted"] is accepted, verdict
+
+
+def with_value_count(count: int) -> str:
+    """The honest certificate's JSON text with exactly ``count`` of the bytes ',', '[' and '{' (what the
+    verifier counts before parsing), the excess as commas inside metadata strings."""
+    def text_of(strings):
+        return json.dumps(with_metadata(strings))
+
+    def counted(text):
+        return text.count(",") + text.count("[") + text.count("{")
+
+    width = documented("characters in one string")
+    strings = []
+    while counted(text_of(strings + [","])) <= count:
+        strings.append("," * width)
+        if counted(text_of(strings)) > count:
+            strings[-1] = "," * (width - (counted(text_of(strings)) - count))
+            break
+    text = text_of(strings)
+    assert counted(text) == count
+    return text
+
+
+def test_a_document_with_the_documented_number_of_values_is_read_and_one_more_is_not(tmp_path):
+    """Kills ``values >= MAX_VALUES`` in parse and MAX_VALUES 1,000,000 -> 1,000,001: the README documents
+    1,000,000 JSON values counted from the bytes before parsing; exactly that many is accepted, one more is
+    unreadable, naming the limit."""
+    most = documented("JSON values in one document")
+    verdicts = command_line(tmp_path, {"at": with_value_count(most), "past": with_value_count(most + 1)})
+    assert verdicts["at"]["accepted"], verdicts["at"]
+    assert verdicts["past"]["reason"] == f"unreadable: the document may hold more than {most} JSON values"
+
+
+def test_a_duplicate_key_is_named(tmp_path):
+    """Kills ``key in seen -> key not in seen`` in _object: the rejection names the key given twice (RFC 8259
+    §4: names should be unique), not the object's first key."""
+    text = json.dumps(with_metadata({"first": "1", "twice": "1"})).replace('"twice": "1"', '"twice": "1", "twice": "2"')
+    verdict = command_line(tmp_path, {"duplicate": text})["duplicate"]
+    assert verdict["reason"] == "unreadable: duplicate key: the object gives 'twice' twice", verdict
+
+
+def test_a_json_number_of_the_documented_digits_is_read_and_one_digit_more_is_not(tmp_path):
+    """Kills ``len(text) >= MAX_DIGITS`` in _integer and MAX_DIGITS 4,000 -> 4,001: the README documents
+    4,000 digits in one number; a JSON integer of exactly that many in the free metadata is read (and the
+    certificate accepted), one digit more is unreadable; a decimal-string coefficient one digit over is
+    refused as "number size" by the Python API."""
+    most = documented("digits in one number")
+    verdicts = command_line(tmp_path, {"at": json.dumps(with_metadata("@")).replace('"@"', "9" * most),
+                                       "past": json.dumps(with_metadata("@")).replace('"@"', "9" * (most + 1))})
+    assert verdicts["at"]["accepted"], verdicts["at"]
+    assert verdicts["past"]["reason"] == f"unreadable: a JSON number has more than {most} digits", verdicts["past"]
+    at, past = honest(), honest()
+    at["curve"][4], past["curve"][4] = "1" + "0" * (most - 1), "1" + "0" * most
+    assert rejection(at).check != "number size"   # another curve: refused by a later check
+    assert str(most) in str(rejection(past, "number size"))
+
+
+def test_a_bundle_that_cannot_be_read_is_one_verdict_without_a_bundle_line(tmp_path):
+    """Kills ``len(entries) == 1 -> !=`` and ``entries[0][0] == name -> !=`` in documents: a bundle of an
+    unknown version is one unreadable verdict under the bundle's own name, and no bundle object (with its
+    digest and member count) follows it in the --jsonl output, as for any source that cannot be read."""
+    from certify.bundle import build_bundle
+    from certify.verifier.digest import digest
+
+    cert = honest()
+    bundle = build_bundle([("c.json", cert, {"digest": digest(cert), "reason": "r"})])
+    bundle["version"] = "2"
+    path = tmp_path / "bundle.json"
+    path.write_text(json.dumps(bundle))
+    result = run("bare verifier", "--jsonl", str(path))
+    lines = result.stdout.decode().splitlines()
+    assert len(lines) == 1 and result.returncode == 2, lines
+    verdict = json.loads(lines[0])
+    assert verdict["file"] == str(path) and verdict["reason"].startswith("unreadable: unknown bundle version")
+
+
+def test_a_name_from_a_bundle_is_cut_at_the_documented_length(tmp_path):
+    """Kills MAX_NAME_BYTES 200 -> 201: the README documents names printed from inside a source cut to 200
+    characters; a member named with 250 letters is printed with its first 200."""
+    from certify.bundle import build_bundle
+    from certify.verifier.digest import digest
+
+    most = documented("names printed from inside a source")
+    cert = honest()
+    bundle = build_bundle([("c.json", cert, {"digest": digest(cert), "reason": "r"})])
+    bundle["manifest"]["members"][0]["name"] = "n" * (most + 50)
+    path = tmp_path / "bundle.json"
+    path.write_text(json.dumps(bundle))
+    (verdict,) = assert_answered(run("bare verifier", "--jsonl", str(path)), jsonl=True)
+    assert verdict["file"] == f"{path}#" + "n" * most, verdict["file"]
