@@ -406,3 +406,95 @@ def test_a_name_from_a_bundle_is_cut_at_the_documented_length(tmp_path):
     path.write_text(json.dumps(bundle))
     (verdict,) = assert_answered(run("bare verifier", "--jsonl", str(path)), jsonl=True)
     assert verdict["file"] == f"{path}#" + "n" * most, verdict["file"]
+
+
+def one_row_store(path) -> str:
+    import sqlite3
+
+    from certify.verifier.digest import digest
+
+    cert = honest()
+    with sqlite3.connect(path) as connection:
+        connection.execute("CREATE TABLE certificates (curve, kind, label, document, digest)")
+        connection.execute("INSERT INTO certificates VALUES (?, 'torsion', '', ?, ?)",
+                           ("[" + ",".join(cert["curve"]) + "]", json.dumps(cert), digest(cert)))
+    return str(path)
+
+
+class CountedSteps:
+    """A store connection on which fetching a row of the certificate query takes exactly ``steps`` SQLite
+    virtual-machine steps: the progress handler is called once per ``n`` steps and a true answer interrupts
+    the fetch, as Python's sqlite3 documents set_progress_handler(handler, n)."""
+
+    def __init__(self, connection, steps: int):
+        self.connection, self.steps, self.handler = connection, steps, None
+
+    def __getattr__(self, name):
+        return getattr(self.connection, name)
+
+    def __setattr__(self, name, value):
+        if name == "text_factory":
+            self.connection.text_factory = value
+        object.__setattr__(self, name, value)
+
+    def set_progress_handler(self, handler, n):
+        self.handler, self.every = handler, n
+
+    def execute(self, query, *args):
+        cursor = self.connection.execute(query, *args)
+        if not query.startswith("SELECT substr"):
+            return cursor
+        outer = self
+
+        class Fetching:
+            def fetchone(self):
+                import sqlite3
+
+                if any(outer.handler() for _ in range(outer.steps // outer.every)):
+                    raise sqlite3.OperationalError("interrupted")
+                return cursor.fetchone()
+        return Fetching()
+
+
+def test_a_row_fetched_in_the_documented_number_of_steps_is_read_and_one_more_handler_call_is_not(tmp_path, monkeypatch):
+    """Kills ``steps[0] >= MAX_STORE_STEPS`` in store_rows: the README documents 50,000,000 SQLite steps to fetch
+    one row; a fetch of exactly that many is read, one of a thousand steps more (the next call of the progress
+    handler) makes the store unreadable."""
+    import sqlite3
+
+    from certify.verifier import sources
+
+    most, path, real = documented("a store", 0), one_row_store(tmp_path / "store.sqlite"), sqlite3.connect
+
+    def fetch_in(steps):
+        monkeypatch.setattr(sqlite3, "connect", lambda *a, **k: CountedSteps(real(*a, **k), steps))
+        return list(sources.store_rows(path))
+
+    ((kind, _, document, _),) = fetch_in(most)
+    assert kind == "row" and not isinstance(document, sources.Unreadable)
+    with pytest.raises(sources.Unreadable, match="interrupted"):
+        fetch_in(most + 1000)
+
+
+def test_a_store_is_read_under_the_documented_memory_limit(tmp_path):
+    """Kills MAX_STORE_MEMORY 200,000,000 -> 200,000,001: the README documents 200 MB of SQLite memory while a
+    store is read; SQLite reports that heap limit (PRAGMA hard_heap_limit, process-wide) once one is read."""
+    import sqlite3
+
+    from certify.verifier import sources
+
+    list(sources.store_rows(one_row_store(tmp_path / "store.sqlite")))
+    with sqlite3.connect(":memory:") as connection:
+        assert connection.execute("PRAGMA hard_heap_limit").fetchone() == (documented("a store", 1),)
+
+
+# --- digest.py ---
+
+def test_a_short_digest_has_the_documented_twelve_hex_digits():
+    """Kills SHORT 12 -> 13: the README ("certify table") cites a certificate by "the first 12 hex digits of
+    its digest"."""
+    from certify.verifier.digest import digest, short
+
+    assert "the first 12 hex digits of its digest" in README.read_text(encoding="utf-8")
+    full = digest(honest())
+    assert short(full) == full[len("sha256:"):][:12] and len(short(full)) == 12
