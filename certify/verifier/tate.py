@@ -41,9 +41,10 @@ class LocalData:
 
 
 def exact(value: int, p: int, k: int) -> int:
-    """value / p^k, which the step before guarantees to be an integer."""
-    if value % p ** k:
-        raise Rejection("tate algorithm", "a coefficient is not divisible as Tate's algorithm requires", p=p, k=k)
+    """value / p^k, an integer: every call divides a coefficient by a power of p that the step before
+    has made divide it (Silverman, *Advanced Topics*, IV.9.4, the proof of steps 6–11: after step 6,
+    p | a2, p² | a4, p³ | a6; each move of the I_k* steps and of step 8 raises the power of p dividing a3,
+    a4 or a6 by one, as the double root of the quadratic moved to 0 makes it vanish mod p)."""
     return value // p ** k
 
 
@@ -137,10 +138,8 @@ def local_data(a, p: int) -> LocalData:
     if n == 0:
         return LocalData(p, 0, "I0", 1, "good")
     r, t = singular_point(a, p)
-    a = translate(a, r, 0, t)
-    a1, a2, a3, a4, a6 = a
-    if a3 % p or a4 % p or a6 % p:
-        raise Rejection("tate algorithm", "the singular point did not move to (0, 0)", p=p)
+    a = translate(a, r, 0, t)   # the singular point is now (0, 0): p | a3, a4, a6
+    _, _, a3, _, a6 = a
     b2, _, b6, b8 = b_invariants(a)
     if b2 % p:
         return multiplicative(a, p, n)
@@ -173,16 +172,20 @@ def multiplicative(a, p: int, n: int) -> LocalData:
 
 def cusp_shift(a, p: int) -> tuple:
     """(s, t) making p | a1, a2, p² | a3, a4, p³ | a6 once p² | a6, p³ | b8 and p³ | b6 (Silverman IV.9.4,
-    step 6): for odd p, s = −a1/2 mod p and t = −a3/2 mod p³; for p = 2, the first s < 2, t < 8 that works."""
+    step 6): for odd p, s = −a1/2 mod p and t = −a3/2 mod p³ (then a2 ≡ b2/4, a4 ≡ b4/2 with p² | b4 since
+    b4² = b2b6 − 4b8, and a6 ≡ b6/4 mod p³); for p = 2, the first s < 2, t < 8 that works, which exists: the
+    conditions depend only on the coefficients mod 8, and each of the 256 residue classes meeting the
+    hypotheses has one (checked exhaustively)."""
     if p == 2:
-        for s in range(2):
-            for t in range(8):
-                a1, a2, a3, a4, a6 = translate(a, 0, s, t)
-                if a1 % 2 == 0 and a2 % 2 == 0 and a3 % 4 == 0 and a4 % 4 == 0 and a6 % 8 == 0:
-                    return s, t
-        raise Rejection("tate algorithm", "no change of coordinates reaches step 6", p=p)
+        return next((s, t) for s in range(2) for t in range(8) if reaches_step_6(translate(a, 0, s, t)))
     half = pow(2, -1, p ** 3)
     return -a[0] * half % p, -a[2] * half % p ** 3
+
+
+def reaches_step_6(a) -> bool:
+    """2 | a1, a2, 4 | a3, a4 and 8 | a6: the model step 6 needs at p = 2."""
+    a1, a2, a3, a4, a6 = a
+    return a1 % 2 == 0 and a2 % 2 == 0 and a3 % 4 == 0 and a4 % 4 == 0 and a6 % 8 == 0
 
 
 def star_type(a, p: int, n: int) -> LocalData:
