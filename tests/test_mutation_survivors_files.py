@@ -498,3 +498,27 @@ def test_a_short_digest_has_the_documented_twelve_hex_digits():
     assert "the first 12 hex digits of its digest" in README.read_text(encoding="utf-8")
     full = digest(honest())
     assert short(full) == full[len("sha256:"):][:12] and len(short(full)) == 12
+
+
+# --- limits.py: the limits of the mathematical checks ---
+
+def test_one_point_count_over_the_documented_number_of_primes_is_refused():
+    """Kills MAX_PRIMES 64 -> 65: the README documents 64 primes with point counts in one certificate; the
+    honest certificate with 65 listed primes (3, 5, 7, … of good reduction; counts from cypari2's ellcard
+    are not needed: the list is refused before any count) is refused as "list size", naming 64."""
+    from test_soundness_limits import good_primes
+
+    most = documented("primes with point counts in one certificate")
+    cert = honest()
+    cert["evidence"]["primes"] = [{"p": str(p), "count": "1"} for p in good_primes("[1,0,1,-19,26]", most + 1, 3)]
+    assert f"more than {most} primes" in rejection(cert, "list size").message
+
+
+def test_a_point_count_prime_one_past_the_documented_largest_is_refused_by_the_limit():
+    """Kills MAX_HINT_PRIME 100,000 -> 100,001: the README documents 100,000 as the largest prime counted
+    through; a point count listed at 100,001 (= 11 · 9091, so no prime lies strictly between) is refused by the
+    limit's own check, "good reduction", naming 100,000 — not left to the point count."""
+    most = documented("largest prime counted through")
+    cert = honest()
+    cert["evidence"]["primes"].insert(0, {"p": str(most + 1), "count": "1"})
+    assert str(most) in str(rejection(cert, "good reduction"))
