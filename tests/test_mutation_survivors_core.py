@@ -145,3 +145,68 @@ def test_an_invariant_below_two_is_refused_as_such(invariant):
     assert not torsion_claim_is_true(cert)
     failure = rejection(cert)
     assert failure.check == "invariants" and failure.values == {"invariants": [invariant]}
+
+
+@pytest.mark.parametrize("u", [2, -2, 3])
+@pytest.mark.parametrize("r", [1, -1])
+def test_changes_with_r_one_and_u_not_a_unit_on_integral_models(u, r):
+    """Kills ``whole[5] in (1, -1): 5 -> 6`` in change_model (the fast path for u = ±1 chosen by r instead of
+    u: it multiplies by u^k where it must divide): changes [u, ±1, s, t] with u ≠ ±1 of an integral model,
+    against cypari2's ellchangecurve."""
+    from certify.verifier.curves import change_model
+
+    a = (1, -1, 1, -3, 3)
+    change = (Fraction(u), Fraction(r), Fraction(2), Fraction(-1))
+    expected = pari.ellchangecurve(pari_curve(a), [str(c) for c in change])
+    assert change_model(tuple(Fraction(c) for c in a), change) == tuple(Fraction(str(c)) for c in expected[:5])
+
+
+# --- curves.py: the group E~(F_q) of the reduction (used by rank.py, whose tests the run leaves out here) ---
+
+def residue_point(point) -> "tuple | None":
+    """A point of cypari2 over F_q ([0], or coordinates Mod(x, q) or, at q = 3, elements of F_3 printed as
+    integers) as the verifier's residue pair or None."""
+    return None if len(point) == 1 else tuple(int(str(pari.lift(c) if c.type() == "t_INTMOD" else c))
+                                               for c in point)
+
+
+@pytest.mark.parametrize("q", [5, 7, 11])
+def test_the_group_law_modulo_q_is_paris(q):
+    """Kills the mutants of add_mod and multiple_mod (``p is None``, ``r is None``, ``x1 == x2``, the test for
+    P + (−P) = O and ``n & 1``): for every pair of points of Ẽ(F_q) of y² + xy + y = x³ − x² − 3x + 3
+    (Δ = −2⁷·13 by cypari2, good reduction at q), O included, the sum is cypari2's elladd over F_q, and
+    n·P for n ≤ 2·#Ẽ(F_q) is cypari2's ellmul."""
+    from certify.verifier.curves import add_mod, multiple_mod
+
+    a = (1, -1, 1, -3, 3)
+    E = pari.ellinit([pari.Mod(c, q) for c in a])
+    points = [None] + [(x, y) for x in range(q) for y in range(q) if pari.ellisoncurve(E, [x, y])]
+    assert len(points) == int(pari.ellcard(E))
+
+    def pari_point(point):
+        return [0] if point is None else [pari.Mod(point[0], q), pari.Mod(point[1], q)]
+
+    for P in points:
+        for R in points:
+            assert add_mod(a, P, R, q) == residue_point(pari.elladd(E, pari_point(P), pari_point(R))), (P, R)
+        for n in range(2 * len(points) + 1):
+            assert multiple_mod(a, n, P, q) == residue_point(pari.ellmul(E, pari_point(P), n)), (P, n)
+
+
+@pytest.mark.parametrize("q", [3, 5, 7, 11, 13])
+def test_reduction_of_rational_points_is_a_homomorphism(q):
+    """Kills the mutants of reduce_point (``point is None``, the test of the denominator of x against q):
+    reduction modulo a prime of good reduction is a homomorphism E(Q) → Ẽ(F_q) (Silverman, VII.2), so the
+    reduction of n·P, computed over Q by cypari2's ellmul, is n times the reduction of P, computed over F_q
+    by cypari2; P = (0, 0) on y² + y = x³ − x (Δ = 37), of infinite order, and n up to twice the order of
+    its reduction, so that the points whose x has q in its denominator (those reducing to O) are met."""
+    from certify.verifier.curves import reduce_point
+
+    a = (0, 0, 1, -1, 0)
+    E, E_q = pari.ellinit(list(a)), pari.ellinit([pari.Mod(c, q) for c in a])
+    P_q = [pari.Mod(0, q), pari.Mod(0, q)]
+    order = int(pari.ellorder(E_q, P_q))
+    for n in range(2 * order + 1):
+        over_q = pari.ellmul(E, [0, 0], n)
+        point = None if len(over_q) == 1 else (Fraction(str(over_q[0])), Fraction(str(over_q[1])))
+        assert reduce_point(point, q) == residue_point(pari.ellmul(E_q, P_q, n)), n
