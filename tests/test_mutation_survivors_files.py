@@ -522,3 +522,68 @@ def test_a_point_count_prime_one_past_the_documented_largest_is_refused_by_the_l
     cert = honest()
     cert["evidence"]["primes"].insert(0, {"p": str(most + 1), "count": "1"})
     assert str(most) in str(rejection(cert, "good reduction"))
+
+
+CONGRUENT_FIVE = ("0", "0", "0", "-25", "0")
+"""y² = x³ − 25x, the congruent-number curve of 5: rank 1 by cypari2's ellrank (tests/rank_reference.py), with a
+descent via 2-isogeny in its certificate."""
+
+
+def rank_certificate() -> dict:
+    """The certifier's rank certificate of CONGRUENT_FIVE (accepted: tests/test_rank_examples.py)."""
+    from fractions import Fraction
+
+    from certify.rank.certificate import certify_rank
+
+    return copy.deepcopy(certify_rank(tuple(Fraction(c) for c in CONGRUENT_FIVE), seconds=5))
+
+
+def test_one_point_over_the_documented_number_in_a_rank_claim_is_refused():
+    """Kills MAX_RANK_POINTS 64 -> 65: the README documents 64 points in a rank claim; 65 copies of the
+    generator are refused as "list size", naming 65 points, before any is reduced."""
+    most = documented("points in a rank claim")
+    cert = rank_certificate()
+    cert["claim"]["points"] *= most + 1
+    cert["claim"]["rank_lower"] = str(most + 1)
+    failure = rejection(cert, "list size")
+    assert failure.values["points"] == most + 1 and str(most) in failure.message
+
+
+def test_one_prime_over_the_documented_number_in_a_descent_factorisation_is_refused():
+    """Kills MAX_DESCENT_PRIMES 64 -> 65: the README documents 64 primes of b in a descent; the factorisation
+    of b replaced by the first 65 primes (cypari2's primes) is refused as "descent size"."""
+    from certify.pari import pari
+
+    most = documented("primes of b, or of a² − 4b, in a descent")
+    cert = rank_certificate()
+    cert["evidence"]["descent"]["factorisation_b"] = [{"prime": str(p), "exponent": "1"} for p in pari.primes(most + 1)]
+    failure = rejection(cert, "descent size")
+    assert failure.values["primes"] == most + 1 and str(most) in failure.message
+
+
+def test_one_disc_over_the_documented_number_is_refused():
+    """Kills MAX_DISCS 20,000 -> 20,001: the README documents 20,000 discs in all the disc covers of one
+    certificate; an exclusion put first whose covers bring the count to 20,001 is refused as "descent size",
+    before any of its discs is read."""
+    most, width = documented("discs in all the disc covers"), documented("entries in one list or object")
+    cert = rank_certificate()
+    descent = cert["evidence"]["descent"]
+    present = sum(len(exclusion.get(key, [])) for side in ("phi", "phi_dual") for exclusion in descent[side]["exclusions"]
+                  if exclusion["place"] != "infinity" for key in ("t_discs", "s_discs"))
+    room = most + 1 - present
+    descent["phi"]["exclusions"].insert(0, {"d": "0", "place": "2", "t_discs": [["0", "0"]] * min(room, width),
+                                            "s_discs": [["0", "1"]] * (room - min(room, width))})
+    failure = rejection(cert, "descent size")
+    assert failure.values["discs"] == most + 1 and str(most) in failure.message
+
+
+def test_a_disc_one_past_the_documented_depth_is_refused_by_the_depth_limit():
+    """Kills MAX_DISC_DEPTH 40 -> 41: the README documents the depth k of a disc c + p^k Z_p up to 40; a disc
+    [0, 41] added to the first disc cover of the descent is refused as "disc cover", naming 40."""
+    most = documented("depth k of a disc")
+    cert = rank_certificate()
+    exclusion = next(e for side in ("phi", "phi_dual") for e in cert["evidence"]["descent"][side]["exclusions"]
+                     if e["place"] != "infinity" and e.get("t_discs"))
+    exclusion["t_discs"].insert(0, ["0", str(most + 1)])
+    failure = rejection(cert, "disc cover")
+    assert f"<= k <= {most}," in failure.message and failure.values["k"] == most + 1
