@@ -9,6 +9,7 @@ genuine certificate, the test has the certifier make one, and asks ellisomat tha
 """
 import copy
 from fractions import Fraction
+from math import gcd
 
 import pytest
 
@@ -59,3 +60,194 @@ def test_a_class_with_a_thirteen_isogeny_is_certified_by_its_x0_root():
     for curve in (0, 1):
         assert witness(cert, curve, 13)["method"] == "x0-roots" and len(witness(cert, curve, 13)["roots"]) == 1
     assert accepted_and_true(cert)
+
+
+# --- reading the claim and the evidence ---
+
+def test_a_missing_minimality_hint_is_refused_as_structure():
+    """Kills the deleted raise of ``len(hints) != len(curves)``: one minimality hint per listed curve, so a
+    certificate whose last hint is gone is refused for its structure (not with an IndexError)."""
+    cert = certificate(THIRTEEN)
+    del cert["evidence"]["minimality"][-1]
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("structure", {"entries": 1, "curves": 2})
+
+
+def test_an_empty_class_is_refused_as_structure():
+    """Kills the deleted raise of ``not entries`` in read_models: every class has at least the input curve."""
+    cert = certificate(THIRTEEN)
+    cert["claim"]["curves"], cert["claim"]["degrees"] = [], []
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("structure", "claim.curves is empty")
+
+
+def test_a_non_integral_listed_model_is_refused():
+    """Kills the deleted raise of ``c.denominator != 1`` in read_models: a listed model with a6 = −3/2 is no
+    reduced minimal model (not integral), and is refused as such rather than read as its truncation
+    int(−3/2) = −1, which is the genuine listed curve (ellisomat lists y² + y = x³ − x² − 2x − 1)."""
+    cert = certificate(THIRTEEN)
+    assert cert["claim"]["curves"][0][4] == "-1"
+    cert["claim"]["curves"][0][4] = "-3/2"
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("minimal model", "a listed model is not integral")
+
+
+def test_an_edge_of_degree_outside_mazurs_list_is_refused():
+    """Kills the deleted raise of ``ell not in MAZUR_PRIMES`` in read_ell: no elliptic curve over Q has a
+    rational isogeny of prime degree 23 (Mazur 1978), so an edge of degree 23 is refused by its degree."""
+    cert = certificate(THIRTEEN)
+    cert["evidence"]["edges"][0]["degree"] = "23"
+    cert["evidence"]["edges"][0]["kernel"] = ["0"] * 11 + ["1"]
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("degree", {"degree": 23})
+
+
+def test_a_kernel_that_is_not_monic_is_refused_as_such():
+    """Kills the deleted raise of ``h[-1] != 1``: the genuine 13-kernel times 2 has the same roots but is not
+    the monic kernel polynomial the format asks for."""
+    cert = certificate(THIRTEEN)
+    edge = cert["evidence"]["edges"][0]
+    edge["kernel"] = [str(2 * Fraction(c)) for c in edge["kernel"]]
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("kernel polynomial", "evidence.edges[0].kernel is not monic")
+
+
+# --- the budgets of the kernels and their identities (certify/verifier/limits.py) ---
+
+def digits_estimate(bits: int) -> int:
+    """The verifier's digit count of a number of ``bits`` bits: ⌊bits·log10 2⌋ + 1, log10 2 ≈ 0.30103."""
+    return bits * 30103 // 100000 + 1
+
+
+def crafted_edge(ell: int, kernel: list) -> dict:
+    """An edge of degree ℓ from curve 0 to curve 1 with the given kernel (Fractions), the identity change."""
+    return {"source": "0", "target": "1", "degree": str(ell), "kernel": [str(c) for c in kernel],
+            "change": ["1", "0", "0", "0"]}
+
+
+def with_edges(edges: list) -> dict:
+    cert = certificate(THIRTEEN)
+    cert["evidence"]["edges"] = edges
+    return cert
+
+
+def test_a_kernel_denominator_exactly_at_the_limit_passes_that_check():
+    """Kills ``>`` -> ``>=`` and the + 1 -> + 2 of the kernel-denominator bound: a 7-kernel x³ + 1/d with d of
+    8302 bits has degree × digits of d = 4 × 2500 = MAX_KERNEL_DENOMINATOR exactly, which the documented
+    bound allows; the kernel is then refused by its isogeny identity (it is no kernel polynomial)."""
+    from certify.verifier import limits
+
+    d = 2 ** 8301 + 1
+    assert 4 * digits_estimate(d.bit_length()) == limits.MAX_KERNEL_DENOMINATOR
+    assert rejection(with_edges([crafted_edge(7, [Fraction(1, d), 0, 0, 1])])).check == "kernel polynomial"
+
+
+def test_a_kernel_denominator_just_over_the_limit_is_refused_by_that_check():
+    """Kills the deleted raise of the kernel-denominator bound and its 100000 -> 100001: a 5-kernel
+    x² + 1/d with d of 11072 bits has degree × digits = 3 × 3334 = 10002 > MAX_KERNEL_DENOMINATOR."""
+    from certify.verifier import limits
+
+    d = 2 ** 11071 + 1
+    assert 3 * digits_estimate(d.bit_length()) > limits.MAX_KERNEL_DENOMINATOR
+    assert rejection(with_edges([crafted_edge(5, [Fraction(1, d), 0, 1])])).check == "kernel denominator"
+
+
+def integer_kernel(ell: int, digits: int, top: int = 0) -> list:
+    """A monic integer polynomial of the degree of an ℓ-kernel, constant term of exactly ``digits`` estimated
+    digits, x^(n−1) coefficient ``top`` and the others 0 (no kernel polynomial of any curve in the tests)."""
+    bits = next(b for b in range(1, 14000) if digits_estimate(b) == digits)
+    n = 1 if ell == 2 else (ell - 1) // 2
+    kernel = [2 ** (bits - 1) + 1] + [0] * (n - 1) + [1]
+    if n > 1:
+        kernel[-2] = top
+    return [Fraction(c) for c in kernel]
+
+
+def test_kernels_exactly_at_twice_the_kernel_size_limit_pass_that_check():
+    """Kills ``total > 2 * MAX_KERNEL_SIZE`` -> ``>=``: two 163-kernels of 82 × 1219 and a 2-kernel of
+    2 × 42 total 2 × MAX_KERNEL_SIZE = 200,000 exactly, which is allowed; the identities are then too large."""
+    from certify.verifier import limits
+
+    edges = [crafted_edge(163, integer_kernel(163, 1219)), crafted_edge(163, integer_kernel(163, 1219, top=1)),
+             crafted_edge(2, integer_kernel(2, 42))]
+    assert 82 * 1219 * 2 + 2 * 42 == 2 * limits.MAX_KERNEL_SIZE
+    assert rejection(with_edges(edges)).check == "identity size"
+
+
+def test_kernels_over_twice_the_kernel_size_limit_are_refused_by_that_check():
+    """Kills the deleted raise of the total kernel size and its 2 -> 3: three 163-kernels of 82 × 1219 digits
+    each, each within MAX_KERNEL_SIZE, total 299,874 > 2 × MAX_KERNEL_SIZE."""
+    edges = [crafted_edge(163, integer_kernel(163, 1219, top=k)) for k in range(3)]
+    assert rejection(with_edges(edges)).check == "kernel size"
+
+
+def identity_size(cert: dict, edge: dict) -> int:
+    """The documented estimate of check_kernel_budget: ℓ × (x_map_digits + digits of the source's F + 8)."""
+    from certify.verifier.isogeny import curve_cubic, x_map_digits
+
+    h = [Fraction(c) for c in edge["kernel"]]
+    common = 1
+    for c in h:
+        common = common * c.denominator // gcd(common, c.denominator)
+    model = [int(c) for c in cert["claim"]["curves"][int(edge["source"])]]
+    model_digits = digits_estimate(max(abs(int(c)).bit_length() for c in curve_cubic(model)))
+    return int(edge["degree"]) * (x_map_digits(h, common) + model_digits + 8)
+
+
+def test_one_identity_over_its_limit_is_refused_though_the_total_is_within():
+    """Kills ``size > MAX_IDENTITY_SIZE`` -> False: one 163-kernel whose identity estimate lies between
+    MAX_IDENTITY_SIZE and MAX_IDENTITY_TOTAL is refused by the per-edge bound."""
+    from certify.verifier import limits
+
+    cert = with_edges([crafted_edge(163, integer_kernel(163, 520))])
+    size = identity_size(cert, cert["evidence"]["edges"][0])
+    assert limits.MAX_IDENTITY_SIZE < size <= limits.MAX_IDENTITY_TOTAL
+    assert rejection(cert).check == "identity size"
+
+
+def test_identities_over_their_total_are_refused_though_each_is_within():
+    """Kills ``identities > MAX_IDENTITY_TOTAL`` -> False: two 163-kernels each within MAX_IDENTITY_SIZE,
+    together over MAX_IDENTITY_TOTAL."""
+    from certify.verifier import limits
+
+    cert = with_edges([crafted_edge(163, integer_kernel(163, 400, top=k)) for k in range(2)])
+    sizes = [identity_size(cert, edge) for edge in cert["evidence"]["edges"]]
+    assert max(sizes) <= limits.MAX_IDENTITY_SIZE < limits.MAX_IDENTITY_TOTAL < sum(sizes)
+    assert rejection(cert).check == "identity size"
+
+
+def test_an_identity_exactly_at_its_limit_passes_that_check():
+    """Kills ``size > MAX_IDENTITY_SIZE`` -> ``>=``: a 5-kernel x² + n·x + 1/c (c of 3,000 digits, n of
+    4,000) from a listed model with a1 of 4,000 digits has the estimate 5 × 32,000 = MAX_IDENTITY_SIZE
+    exactly, which is allowed; the certificate is then refused because that model is not the input curve's."""
+    from certify.verifier import limits
+
+    cert = certificate(THIRTEEN)
+    cert["claim"]["curves"][0] = [str(2 ** 13284 + 1), "0", "1", "0", "0"]
+    cert["evidence"]["edges"] = [crafted_edge(5, [Fraction(1, 2 ** 9959 + 1), Fraction(2 ** 13284 + 1), 1])]
+    assert identity_size(cert, cert["evidence"]["edges"][0]) == limits.MAX_IDENTITY_SIZE
+    assert rejection(cert).check not in ("identity size", "kernel size", "kernel denominator")
+
+
+def test_identities_exactly_at_their_total_limit_pass_that_check():
+    """Kills ``identities > MAX_IDENTITY_TOTAL`` -> ``>=``: two 163-kernels of estimate 163 × 732 and a
+    2-kernel of 2 × 5684 total MAX_IDENTITY_TOTAL = 250,000 exactly, which is allowed; the two 163-kernels
+    are the same polynomial, which is refused next as a repeated edge."""
+    from certify.verifier import limits
+
+    big = integer_kernel(163, 360)
+    cert = with_edges([crafted_edge(163, big), crafted_edge(163, big), crafted_edge(2, integer_kernel(2, 1891))])
+    sizes = [identity_size(cert, edge) for edge in cert["evidence"]["edges"]]
+    assert max(sizes) <= limits.MAX_IDENTITY_SIZE and sum(sizes) == limits.MAX_IDENTITY_TOTAL
+    assert rejection(cert).check == "distinct edges"
+
+
+# --- the completeness witnesses ---
+
+def test_two_witnesses_for_one_curve_and_one_ell_are_refused():
+    """Kills the deleted raise of ``key in witnesses``: exactly one witness for each curve and ℓ, so a
+    witness listed twice (the same genuine one) is refused."""
+    cert = certificate(THIRTEEN)
+    cert["evidence"]["completeness"].append(copy.deepcopy(witness(cert, 1, 13)))
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("completeness", "two witnesses for one curve and one ℓ")
