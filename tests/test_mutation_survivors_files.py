@@ -587,3 +587,20 @@ def test_a_disc_one_past_the_documented_depth_is_refused_by_the_depth_limit():
     exclusion["t_discs"].insert(0, ["0", str(most + 1)])
     failure = rejection(cert, "disc cover")
     assert f"<= k <= {most}," in failure.message and failure.values["k"] == most + 1
+
+
+@pytest.mark.parametrize("key, label", [("points", "points, and local generators, on one side of a descent"),
+                                        ("local_generators", "points, and local generators, on one side of a descent"),
+                                        ("exclusions", "exclusions on one side of a descent")])
+def test_one_entry_over_the_documented_size_of_a_descent_side_is_refused(key, label):
+    """Kills MAX_DESCENT_GENERATORS 65 -> 66 and MAX_DESCENT_ELEMENTS 4,096 -> 4,097: the README documents 65
+    points and local generators and 4,096 exclusions on one side of a descent; one more entry (copies of the
+    side's first entry, or (0, 0)) is refused as "descent size", naming the documented number, before any
+    entry is examined."""
+    most = documented(label)
+    cert = rank_certificate()
+    side = cert["evidence"]["descent"]["phi"]
+    filler = side[key][0] if side[key] else ["0", "0"]
+    side[key] = (side[key] + [copy.deepcopy(filler) for _ in range(most + 1)])[:most + 1]
+    failure = rejection(cert, "descent size")
+    assert failure.values["entries"] == most + 1 and f"more than {most} entries" in failure.message
