@@ -251,3 +251,74 @@ def test_two_witnesses_for_one_curve_and_one_ell_are_refused():
     cert["evidence"]["completeness"].append(copy.deepcopy(witness(cert, 1, 13)))
     failure = rejection(cert)
     assert (failure.check, failure.message) == ("completeness", "two witnesses for one curve and one ℓ")
+
+
+def test_witness_primes_two_and_nine_are_refused_as_witness_primes():
+    """Kills ``2 < p`` -> ``2 <= p`` and ``is_prime(p)`` -> True in witness_prime: a witness prime is an odd
+    prime, so 2 and the composite 9 are refused by that rule (not later by the point count)."""
+    for p in ("2", "9"):
+        cert = certificate(THIRTEEN)
+        witness(cert, 0, 3)["prime"] = p
+        assert rejection(cert).check == "witness prime", p
+
+
+# --- minimality of the listed models ---
+
+def minimality_rejection(model, primes) -> Rejection:
+    from certify.verifier.isogeny import check_reduced_minimal
+
+    with pytest.raises(Rejection) as caught:
+        check_reduced_minimal(model, {"primes": primes}, "claim.curves[0]")
+    return caught.value
+
+
+NOT_MINIMAL_AT_5 = (0, 0, 0, -5 ** 4, 5 ** 6)
+"""y² = x³ − 5⁴x + 5⁶, in reduced form but not minimal at 5: cypari2's ellminimalmodel gives y² = x³ − x + 1."""
+
+
+def test_minimality_hints_must_be_primes_from_five_dividing_gcd_c4_c6():
+    """Kills ``p < 5`` -> False, ``rest % p`` -> False, the deleted raises after them and after the primality
+    test, and the deleted raise of an unexplained gcd(c4, c6): the hint 0 (below 5), 7 (does not divide
+    gcd(c4, c6) = 2⁴·3·5⁴ of y² = x³ − 5⁴x + 5⁶, up to 2 and 3), 625 (divides it, not a prime: with it
+    the non-minimal model would pass, ellminimalmodel denies it) and no hint at all are refused."""
+    from certify.pari import pari
+    from soundness_pool import pari_curve
+
+    assert [int(c) for c in pari.ellminimalmodel(pari_curve(NOT_MINIMAL_AT_5))[:5]] == [0, 0, 0, -1, 1]
+    assert minimality_rejection(NOT_MINIMAL_AT_5, ["0"]).message.startswith("a listed prime is below 5")
+    assert minimality_rejection(NOT_MINIMAL_AT_5, ["7"]).message.startswith("a listed prime is below 5")
+    assert "confirm" in minimality_rejection(NOT_MINIMAL_AT_5, ["625"]).message
+    assert minimality_rejection(NOT_MINIMAL_AT_5, []).values == {"unexplained": 625}
+
+
+def scaled_model(a, p: int) -> tuple:
+    """The model of the curve a after x = p²x', y = p³y' read backwards (a_i·p^i), then put in reduced form by
+    x → x + r, y → y + sx + t (cypari2's ellchangecurve): integral, not minimal at p."""
+    from certify.pari import pari
+    from soundness_pool import pari_curve
+
+    E = pari.ellchangecurve(pari_curve(a), [pari(1) / p, 0, 0, 0])
+    for r in range(-4, 5):
+        for s in range(-2, 3):
+            for t in range(-30, 31):
+                model = [int(c) for c in pari.ellchangecurve(E, [1, r, s, t])[:5]]
+                if model[0] in (0, 1) and model[2] in (0, 1) and model[1] in (-1, 0, 1):
+                    return tuple(model)
+    raise AssertionError("no reduced form found")
+
+
+@pytest.mark.parametrize("a, p", [((0, -1, 1, -10, -20), 2), ((0, -1, 1, -10, -20), 3)])
+def test_a_model_that_scales_down_at_two_or_three_is_not_minimal(a, p):
+    """On y² + y = x³ − x² − 10x − 20 (conductor 11 in Cremona's table). Kills the mutants of ``delta % p ** 12 == 0`` (!= 0, 12 -> 13, 0 -> 1), its deleted raise and the
+    constants of scales_down_at (the numerators of Silverman's Table 3.1): a minimal curve scaled by u = 1/p
+    and put in reduced form is integral with p¹² ‖ Δ at a prime of good reduction, and not minimal at p —
+    cypari2's ellminimalmodel gives back the curve — while the curve itself passes."""
+    from certify.pari import pari
+    from certify.verifier.isogeny import check_reduced_minimal
+    from soundness_pool import pari_curve
+
+    model = scaled_model(a, p)
+    assert tuple(int(c) for c in pari.ellminimalmodel(pari_curve(model))[:5]) == a
+    failure = minimality_rejection(model, [])
+    assert (failure.message, failure.values["p"]) == ("claim.curves[0] is not minimal at p", p)
+    check_reduced_minimal(a, {"primes": []}, "claim.curves[0]")
