@@ -128,7 +128,8 @@ def estimate(model, conductor: int, bad: dict, test_point: Fraction):
     number is not separated at this A or the analytic rank is not 0 or 1."""
     c = 2 * math.pi / math.sqrt(conductor)
     slowest = c / float(test_point)
-    truncation = math.ceil((ESTIMATE_BITS * math.log(2) - math.log1p(-math.exp(-slowest))) / slowest)
+    # Σ_{n>M} e^(−s·n) = e^(−s·M)/(1 − e^(−s)); −log(1 − e^(−s)) as −log(−expm1(−s)), finite for a tiny s
+    truncation = math.ceil((ESTIMATE_BITS * math.log(2) - math.log(-math.expm1(-slowest))) / slowest)
     if truncation > 2 * MAX_TRUNCATION:
         return None
     a = coefficients(model, conductor, bad, truncation)

@@ -10,6 +10,7 @@ verifier's Rejection, or the order it proves is the analytic rank by cypari2.
 import copy
 import functools
 import itertools
+import math
 import random
 from fractions import Fraction
 
@@ -376,6 +377,18 @@ def test_limits_admit_genuine_witnesses_of_large_conductor():
     assert pari_rank(a) == 1
     entry = witness(a)
     assert entry is not None and check_analytic_witness(exact(a), entry, "evidence.analytic") == 1
+
+
+def test_a_conductor_far_beyond_the_limits_gets_no_witness_and_no_error():
+    """[1, 1, 0, −96508871424, −3321343798267778]: its conductor N (cypari2 ellglobalred, reference library)
+    is so large that the slowest rate s = 2π/(A·√N) of the series makes 1 − e^(−s) round to 0 in floating
+    point, where the certifier's tail bound used to raise; the truncation any test point A ≥ 6/5 needs for
+    tails below 2^−60, at least 60·log 2/s, is far beyond MAX_TRUNCATION: no witness, and no exception."""
+    a = (1, 1, 0, -96508871424, -3321343798267778)
+    conductor = int(pari.ellglobalred(pari.ellinit(list(a)))[0])
+    slowest = 2 * math.pi / (1.2 * math.sqrt(conductor))
+    assert 1 - math.exp(-slowest) == 0 and 60 * math.log(2) / slowest > 2 * MAX_TRUNCATION
+    assert analytic_witness(tuple(Fraction(c) for c in a)) is None
 
 
 SETTINGS = settings(max_examples=500, deadline=None, suppress_health_check=list(HealthCheck), derandomize=True)
