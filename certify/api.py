@@ -217,13 +217,14 @@ class Verdict:
 def verify(certificate: Union[Certificate, dict, Path]) -> Verdict:
     """Recheck one certificate — an object, its JSON document, or a file holding one — exactly as
     ``certify verify`` does: a document is written out as JSON text and read back as a file would be
-    (with the verifier's limits and refusals), then checked."""
+    (with the verifier's limits and refusals), then checked. A document holding several certificates (a
+    bundle) raises CertifyError: ``verify_all`` gives one verdict each."""
     if isinstance(certificate, (Certificate, dict)):
         from certify.verifier.cli import run_task
 
         document = certificate.document if isinstance(certificate, Certificate) else certificate
         try:
-            data = json.dumps(document).encode("ascii")
+            data = _as_file_bytes(document)
         except (TypeError, ValueError, RecursionError) as error:
             return Verdict(False, f"unreadable: not a JSON document ({type(error).__name__})", None, "certificate")
         verdicts, where = [_verdict(result) for result in run_task(("data", "certificate", data))[0]], "the document"
@@ -232,6 +233,16 @@ def verify(certificate: Union[Certificate, dict, Path]) -> Verdict:
     if len(verdicts) != 1:
         raise CertifyError(f"{where} holds {len(verdicts)} certificates; use verify_all")
     return verdicts[0]
+
+
+def _as_file_bytes(document) -> bytes:
+    """The document as ``certify`` writes a file: UTF-8 JSON, so that its size is measured against the
+    verifier's file limit as the file's would be; text no file can hold in UTF-8 (a lone surrogate) is
+    written with JSON escapes instead, as the verifier reads it from a file so written."""
+    try:
+        return json.dumps(document, ensure_ascii=False).encode("utf-8")
+    except UnicodeEncodeError:
+        return json.dumps(document).encode("ascii")
 
 
 def verify_all(source: Path) -> list[Verdict]:
