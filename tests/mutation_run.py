@@ -389,14 +389,14 @@ class Workspace:
     def outcome(self, mutant: Mutant, timeout: float) -> str:
         """'killed', 'timeout', 'killed by new test' or 'survived' for one mutant (the module is restored
         afterwards): the module's tests run first, and only if they all pass the tests of SURVIVOR_TESTS, so
-        that one run gives the figures before and after those tests."""
+        that one run gives the figures before and after those tests; a timeout of either run is a timeout."""
         path = self.directory / VERIFIER / mutant.module
         original = path.read_text()
         try:
             path.write_text(mutant.apply(original))
             result = self.run(TESTS[mutant.module], timeout)
             if result == "passed" and any((self.directory / name).exists() for name in SURVIVOR_TESTS):
-                result = {"failed": "new", "timeout": "new"}.get(self.run(SURVIVOR_TESTS, timeout), "passed")
+                result = {"failed": "new", "timeout": "timeout"}.get(self.run(SURVIVOR_TESTS, timeout), "passed")
         finally:
             path.write_text(original)
         return {"passed": "survived", "failed": "killed", "timeout": "timeout", "new": "killed by new test"}[result]
