@@ -369,6 +369,28 @@ def test_d_zero_is_refused_as_zero():
         "d must be a non-zero squarefree product of primes of b")
 
 
+@pytest.mark.parametrize("primes", [[2], [2, 5], [3, 7, 11], [2, 3, 5, 7]])
+def test_elements_of_v_are_exactly_the_squarefree_signed_products_of_the_primes(primes):
+    """element_vector without its former test ``p² | d`` (removed as dead code: the primes of a
+    factorisation are distinct, so a square factor leaves a prime in what is divided out): for every
+    d ≠ 0 with |d| ≤ 2,000, it accepts exactly the d = ±∏ of distinct listed primes, by sympy's factorint
+    (the reference library), and then gives the vector of the sign and those primes."""
+    import sympy
+
+    for d in range(-2000, 2001):
+        if d == 0:
+            continue
+        factors = sympy.factorint(abs(d))
+        member = all(e == 1 and p in primes for p, e in factors.items())
+        if member:
+            expected = (1 if d < 0 else 0) | sum(2 << i for i, p in enumerate(primes) if p in factors)
+            assert element_vector(d, primes, "d") == expected
+        else:
+            with pytest.raises(Rejection) as caught:
+                element_vector(d, primes, "d")
+            assert caught.value.check == "descent element"
+
+
 def test_an_element_with_a_prime_outside_b_is_refused():
     """Kills ``rest != 1 -> False`` in element_vector and the deleted raise: on the side of y² = x³ − 15x² + 50x
     (the descent model of y² = x³ − 25x), −1 is excluded at infinity; −3 = −1·3 is not in V = ⟨−1, 2, 5⟩

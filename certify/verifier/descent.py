@@ -146,7 +146,9 @@ def image_vector(point, B: int, primes: list) -> int:
 
 
 def element_vector(d: int, primes: list, where: str) -> int:
-    """The vector of d ∈ V, which must be a squarefree ±∏p over the primes of B."""
+    """The vector of d ∈ V, which must be a squarefree ±∏p over the primes of B. The primes are distinct
+    (read_factorisation makes them increase strictly), so each is divided out of |d| at most once, and
+    what is left is 1 exactly when |d| is a product of distinct primes of the list."""
     if d == 0:
         raise Rejection("descent element", f"{where}: d must be a non-zero squarefree product of primes of b", d=d)
     vector, rest = (1 if d < 0 else 0), abs(d)
@@ -154,7 +156,7 @@ def element_vector(d: int, primes: list, where: str) -> int:
         if rest % p == 0:
             rest //= p
             vector |= 2 << i
-    if rest != 1 or any(d % (p * p) == 0 for p in primes):
+    if rest != 1:
         raise Rejection("descent element", f"{where}: d is not a squarefree product of -1 and primes of b", d=d)
     return vector
 

@@ -76,7 +76,7 @@ def check_rank_certificate(cert: dict) -> dict:
 
 def optional(obj: dict, key: str, kind, where: str):
     """obj[key], which must be present and either null or of the JSON type ``kind``."""
-    if not isinstance(obj, dict) or key not in obj:
+    if key not in obj:
         raise Rejection("structure", f"{where} has no field {key!r}")
     return None if obj[key] is None else field(obj, key, kind, where)
 
