@@ -5,6 +5,7 @@ import textwrap
 import unicodedata
 from fractions import Fraction
 
+from certify.verifier.digest import short
 from certify.verifier.theorems import THEOREMS
 
 WIDTH = 100
@@ -330,7 +331,7 @@ def bundle_summary(bundle: dict, results: list) -> list:
         claim = result["reason"] if result["accepted"] else "—"
         rows.append(("accepted" if result["accepted"] else "rejected", cut(result.get("label") or "—", 16),
                      cut(curve, 38), cut(claim, 60),
-                     result["digest"].split(":", 1)[1][:12] if result.get("digest") else "—"))
+                     short(result["digest"]) if result.get("digest") else "—"))
     widths = [max(len(row[k]) for row in rows) for k in range(5)]
     accepted = sum(result["accepted"] for result in results)
     lines = [f"bundle: {printable(bundle['file'])} — {plural(len(results), 'certificate')}, {accepted} accepted",
