@@ -236,13 +236,14 @@ def verify(certificate: Union[Certificate, dict, Path]) -> Verdict:
 
 
 def _as_file_bytes(document) -> bytes:
-    """The document as ``certify`` writes a file: UTF-8 JSON, so that its size is measured against the
-    verifier's file limit as the file's would be; text no file can hold in UTF-8 (a lone surrogate) is
-    written with JSON escapes instead, as the verifier reads it from a file so written."""
+    """The document as certify writes a file (``to_json``: UTF-8, indented one space a level), so that the
+    verifier's file limits measure it as they would that file; text no file can hold in UTF-8 (a lone
+    surrogate) is written with JSON escapes in the same layout, as the verifier reads it from a file so
+    written."""
     try:
-        return json.dumps(document, ensure_ascii=False).encode("utf-8")
+        return to_json(document).encode("utf-8")
     except UnicodeEncodeError:
-        return json.dumps(document).encode("ascii")
+        return (json.dumps(document, indent=1) + "\n").encode("ascii")
 
 
 def verify_all(source: Path) -> list[Verdict]:
