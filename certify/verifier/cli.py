@@ -26,7 +26,7 @@ from certify.verifier.errors import Rejection, show
 from certify.verifier.kit import package_files, source_digest
 from certify.verifier.limits import MAX_NAME_BYTES
 from certify.verifier.report import (assumptions, bundle_summary, claim_lines, closing_line, describe_claim, one_line,
-                                     printable, report)
+                                     printable, printable_name, report)
 from certify.verifier.sources import Unreadable, check_recorded, documents, tasks
 from certify.verifier.theorems import THEOREMS
 
@@ -40,8 +40,9 @@ DIGEST = re.compile(r"sha256:[0-9a-f]{64}")
 def check(name: str, document, recorded: dict, label=None) -> dict:
     """The verdict on one certificate: {"file", "label", "accepted", "reason", "readable"} and, for a readable
     one, "seconds", "digest", "curve", "relies_on" (keys) and, when accepted, "checks" (what was checked)
-    and "claim digest", "claim lines" (the claim in full). Names and reasons are made ``printable``."""
-    name, label = printable(name), printable(label) if label else None
+    and "claim digest", "claim lines" (the claim in full). Names are made ``printable_name``, reasons
+    ``printable``."""
+    name, label = printable_name(name), printable(label) if label else None
     if isinstance(document, Unreadable):
         return {"file": name, "label": label, "accepted": False, "reason": printable(f"unreadable: {document}"),
                 "readable": False, "digest": None}
@@ -133,7 +134,7 @@ def verdicts(paths, workers: int = 1):
 def bundle_verdict(bundle: dict, results: list) -> dict:
     """The JSONL object of a bundle: accepted when every member is."""
     accepted = sum(result["accepted"] for result in results)
-    return {"file": printable(bundle["file"]), "accepted": accepted == len(results),
+    return {"file": printable_name(bundle["file"]), "accepted": accepted == len(results),
             "reason": f"bundle of {plural(len(results), 'certificate')}: {accepted} accepted",
             "digest": bundle["digest"], "members": len(results)}
 

@@ -37,6 +37,13 @@ def printable(text: str) -> str:
                    for previous, c in zip("\0" + text, text))
 
 
+def printable_name(text: str) -> str:
+    """A name from a file, store or bundle as ``printable`` writes it, with its em dashes escaped too
+    (\\u2014): in a verdict line ``accepted: NAME — CLAIM [checks] DIGEST`` the first " — " is then the one
+    the verifier put after the name, and no name can carry a claim or a digest of its own into the line."""
+    return printable(text).replace("\u2014", escape("\u2014"))
+
+
 def escape(c: str) -> str:
     code = ord(c)
     return "\\x%02x" % code if code < 0x100 else "\\u%04x" % code if code < 0x10000 else "\\U%08x" % code
@@ -334,7 +341,7 @@ def bundle_summary(bundle: dict, results: list) -> list:
                      short(result["digest"]) if result.get("digest") else "—"))
     widths = [max(len(row[k]) for row in rows) for k in range(5)]
     accepted = sum(result["accepted"] for result in results)
-    lines = [f"bundle: {printable(bundle['file'])} — {plural(len(results), 'certificate')}, {accepted} accepted",
+    lines = [f"bundle: {printable_name(bundle['file'])} — {plural(len(results), 'certificate')}, {accepted} accepted",
              f"  bundle digest {bundle['digest']} (of its manifest, whatever the file's layout)",
              f"  file SHA-256  {bundle['file digest']} (what sha256sum prints for the file)"]
     lines += ["  " + "  ".join(cell.ljust(width) for cell, width in zip(row, widths)).rstrip() for row in rows]
