@@ -28,7 +28,8 @@ from certify.verifier.errors import Rejection
 from certify.verifier.intervals import Interval
 from certify.verifier.limits import (MAX_ANALYTIC_COUNT_WORK, MAX_ANALYTIC_SERIES_WORK, MAX_PRECISION_BITS,
                                      MAX_TEST_POINT_DENOMINATOR, MAX_TRUNCATION)
-from certify.verifier.lseries import analytic_intervals, check_analytic_witness, dirichlet_coefficients, frobenius_traces
+from certify.verifier.lseries import (analytic_intervals, check_analytic_witness, check_truncation, dirichlet_coefficients,
+                                     frobenius_traces)
 from conductor_reference import fixture_rows
 
 ROWS = fixture_rows("conductor_lt_1000.txt")
@@ -80,8 +81,9 @@ def certified_intervals(a: tuple, entry: dict) -> tuple:
     truncation = int(entry["truncation"])
     coefficients = dirichlet_coefficients(frobenius_traces(model, local, truncation), {d.prime for d in local},
                                           truncation)
-    return analytic_intervals(coefficients, conductor, int(entry["order"]), int(entry["precision_bits"]),
-                              Fraction(entry["test_point"]))
+    bits, test_point = int(entry["precision_bits"]), Fraction(entry["test_point"])
+    bounds = check_truncation(conductor, truncation, bits, test_point)
+    return analytic_intervals(coefficients, conductor, int(entry["order"]), bits, test_point, bounds)
 
 
 # --- intervals against mpmath ---

@@ -76,10 +76,10 @@ def check_analytic_witness(a, entry: dict, where: str) -> int:
     model, _, local = check_conductor_evidence(a, field(entry, "conductor", dict, where), f"{where}.conductor")
     conductor = conductor_of(local)
     check_root_number_claim(order, root_number)
-    check_truncation(conductor, truncation, bits, test_point)
+    bounds = check_truncation(conductor, truncation, bits, test_point)
     coefficients = dirichlet_coefficients(frobenius_traces(model, local, truncation, hints),
                                           {data.prime for data in local}, truncation)
-    sign_test, value = analytic_intervals(coefficients, conductor, order, bits, test_point)
+    sign_test, value = analytic_intervals(coefficients, conductor, order, bits, test_point, bounds)
     check_root_number(order, sign_test)
     check_nonvanishing(order, value)
     return order
@@ -218,15 +218,17 @@ def derivative_tail_bound(rate: Interval, truncation: int, bits: int):
     return None if tail is None else tail / (rate.lo * (truncation + 1))
 
 
-def check_truncation(conductor: int, truncation: int, bits: int, test_point: Fraction) -> None:
+def check_truncation(conductor: int, truncation: int, bits: int, test_point: Fraction) -> dict:
     """The truncation point M suffices for the claimed precision b: the tails of S(c/A), S(c), S(cA) and of
-    the series for L′(E, 1), bounded at the working precision, are at most 2^−b."""
+    the series for L′(E, 1), bounded at the working precision, are at most 2^−b. Returns those bounds."""
     work = working_bits(truncation, bits)
-    for name, tail in tails(conductor, truncation, work, test_point).items():
+    bounds = tails(conductor, truncation, work, test_point)
+    for name, tail in bounds.items():
         if tail is None or tail > Fraction(1, 1 << bits):
             raise Rejection("truncation", f"the tail of {name} beyond the truncation point exceeds 2^-b",
                             truncation=truncation, precision_bits=bits, conductor=conductor,
                             tail=None if tail is None else float(tail))
+    return bounds
 
 
 def tails(conductor: int, truncation: int, work: int, test_point: Fraction) -> dict:
@@ -401,18 +403,15 @@ def with_tail(value: Interval, tail: Fraction) -> Interval:
     return Interval(value.lo - tail, value.hi + tail)
 
 
-def analytic_intervals(coefficients: list, conductor: int, order: int, bits: int, test_point: Fraction) -> tuple:
+def analytic_intervals(coefficients: list, conductor: int, order: int, bits: int, test_point: Fraction,
+                       bounds: dict) -> tuple:
     """(the root-number test, the value) as intervals, for a truncation M = len(coefficients) − 1 that has
-    passed ``check_truncation``: for order 0, (G, L(E, 1)) with G = S(c/A) − S(cA) and L(E, 1) = S(c/A) + S(cA)
+    passed ``check_truncation``, which gave the tail ``bounds``: for order 0, (G, L(E, 1)) with G = S(c/A) − S(cA) and L(E, 1) = S(c/A) + S(cA)
     (valid once w = +1); for order 1, (D, L′(E, 1)) with D = S(c/A) + S(cA) − 2 S(c) and
     L′(E, 1) = 2 Σ (a_n/n) E₁(cn) (valid once w = −1). Each series is widened by its tail bound."""
     truncation = len(coefficients) - 1
     work = working_bits(truncation, bits)
     rates = decay_rates(conductor, test_point, work)
-    bounds = tails(conductor, truncation, work, test_point)
-    if None in bounds.values():
-        raise Rejection("truncation", "a tail has no finite bound at this precision", truncation=truncation,
-                        precision_bits=bits)
     sums = {name: with_tail(partial_sum(coefficients, rates[name], work), bounds[f"S({name})"])
             for name in (("c/A", "cA") if order == 0 else ("c/A", "cA", "c"))}
     if order == 0:
