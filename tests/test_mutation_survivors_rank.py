@@ -15,7 +15,9 @@ by monkeypatching shows that the limit alone refused it.
 from __future__ import annotations
 
 import copy
+import json
 from fractions import Fraction
+from pathlib import Path
 
 import pytest
 
@@ -116,6 +118,31 @@ def test_a_non_integral_model_is_refused():
     cert, _ = pool_certificate(["1/2", "1", "1/4", "-105/16", "-247/16"])
     cert["evidence"]["integral_model"] = {"change": ["1", "0", "0", "0"], "curve": list(cert["curve"])}
     assert rejection(cert).check == "integral model"
+
+
+def test_every_character_value_is_the_discrete_logarithm_paris_group_law_gives():
+    """characters without its former 'cannot happen' raise (removed as dead code: for ℓ ∥ #Ẽ(F_q) the
+    images (#Ẽ/ℓ)·P̃ lie in Ẽ(F_q)[ℓ], cyclic of order ℓ, so each is a multiple of the first non-zero one).
+    On y² = x³ + 5x² − 12x with the two points of its demo rank certificate, ℓ = 3 and the first 12 primes q with
+    3 ∥ #Ẽ(F_q): every image has a value χ, and χ·G = image in cypari2's group law on Ẽ over F_q
+    (ellinit over Mod(1, q), ellmul: the reference library), G the first non-zero image."""
+    curve, ell = ["0", "5", "0", "-12", "0"], 3
+    cert = json.loads((Path(__file__).parent.parent / "certificates-demo" / "appendix-curve-8.rank.json").read_text())
+    assert cert["curve"] == curve
+    model = tuple(Fraction(c) for c in curve)
+    points = [tuple(Fraction(c) for c in point) for point in cert["claim"]["points"]]
+    assert len(points) == 2
+    for q in good_primes(curve, 12, ell):
+        count = point_count(curve, q)
+        values = rank.characters(model, points, ell, q, count)
+        reduced = pari.ellinit([int(c) for c in curve], q)
+        images = [pari.ellmul(reduced, [pari.Mod(int(x.numerator) * pow(x.denominator, -1, q), q),
+                                        pari.Mod(int(y.numerator) * pow(y.denominator, -1, q), q)], count // ell)
+                  for x, y in points]
+        generator = next((image for image in images if image != [0]), None)
+        for image, value in zip(images, values):
+            assert 0 <= value < ell
+            assert (image == [0]) if generator is None else pari.ellmul(reduced, generator, value) == image
 
 
 # --- rank.py: the limits of check_sizes and check_character_primes ---
