@@ -14,6 +14,7 @@ the limit: accepted, or refused by another check); for the schema step, the refe
 import copy
 import json
 import re
+from fractions import Fraction
 from pathlib import Path
 
 import pytest
@@ -604,3 +605,296 @@ def test_one_entry_over_the_documented_size_of_a_descent_side_is_refused(key, la
     side[key] = (side[key] + [copy.deepcopy(filler) for _ in range(most + 1)])[:most + 1]
     failure = rejection(cert, "descent size")
     assert failure.values["entries"] == most + 1 and f"more than {most} entries" in failure.message
+
+
+def lifting_certificate(a6: int, small_prime: int) -> dict:
+    """A one-curve isogeny-class certificate of y² + y = x³ + (10^3849 + 1)x + a6 whose first two completeness
+    witnesses are root searches: ℓ = 2 by the 2-division cubic 4x³ + 4a4·x + 4a6 + 1 with the hint
+    ``small_prime``, at which it splits (3 roots), then ℓ = 13 by P_13(t) − j·t with the hint 5 (2 roots). The
+    other witnesses are the pool certificate's (refused later, if reached)."""
+    from soundness_pool import pool
+
+    members = pool("isogeny")
+    cert = fresh("isogeny", members.index(next(c for c in members if len(c["claim"]["curves"]) == 1)))
+    model = ["0", "0", "1", str(10 ** 3849 + 1), str(a6)]
+    cert["curve"], cert["claim"]["curves"] = model, [model]
+    evidence = cert["evidence"]
+    evidence["completeness"] = [
+        {"curve": "0", "degree": "2", "method": "division-roots", "prime": str(small_prime), "roots": []},
+        {"curve": "0", "degree": "13", "method": "x0-roots", "prime": "5", "roots": []}] + \
+        [w for w in evidence["completeness"] if w["degree"] not in ("2", "13")]
+    return cert
+
+
+def test_hensel_lifting_one_unit_past_the_documented_budget_is_refused():
+    """Kills MAX_LIFTING_WORK 15,000 -> 15,001: the README documents 15,000 units of Hensel lifting per
+    certificate (Σ roots mod p × degree × digits² / 10⁶, each search charged before it is lifted). In the
+    certificate of ``lifting_certificate`` (a6 = 10^2579 + 3, found by a search) the ℓ = 2 search is charged 60
+    units, and is genuine: the cubic has no rational root (cypari2's nfroots), so the curve has no rational
+    2-isogeny, as the witness states; the ℓ = 13 search then brings the total to 15,001, refused as "lifting
+    work" naming 15,000 before that search is lifted (a model whose total is exactly 15,000 is left out: it
+    lifts the full budget, about two seconds)."""
+    from certify.pari import pari
+
+    most = documented("Hensel lifting per certificate")
+    a4, a6 = 10 ** 3849 + 1, 10 ** 2579 + 3
+    assert list(pari(f"nfroots(, 4*x^3 + 4*({a4})*x + 4*({a6}) + 1)")) == []
+    failure = rejection(lifting_certificate(a6, 31), "lifting work")
+    assert failure.values["spent"] == most + 1 and f"limit of {most}" in failure.message, str(failure)
+    assert "ℓ = 13" in failure.message and failure.values["roots_mod_p"] == 2
+
+
+# --- limits.py: the conductor certificates' limits ---
+
+CUBE_PLUS_ONE = (0, 0, 0, 0, 1)
+"""y² = x³ + 1, minimal discriminant −432 = −2^4·3^3 (cypari2's ellglobalred, in the conductor tests)."""
+
+
+def conductor_certificate() -> dict:
+    """The certifier's conductor certificate of CUBE_PLUS_ONE (accepted: tests/test_conductor_local.py)."""
+    from test_mutation_survivors_conductor import certificate
+
+    return certificate(CUBE_PLUS_ONE)
+
+
+def test_one_prime_over_the_documented_number_in_a_factorisation_is_refused():
+    """Kills MAX_DISCRIMINANT_PRIMES 1,000 -> 1,001: the README documents 1,000 primes in one factorisation;
+    the discriminant's factorisation replaced by the first 1,001 primes (cypari2's primes) is refused as
+    "list size" naming 1,000, and by the first 1,000 primes only as a factorisation that is not the
+    discriminant's."""
+    from certify.pari import pari
+
+    most = documented("primes in one factorisation")
+    for count, check in ((most + 1, "list size"), (most, "factorisation")):
+        cert = conductor_certificate()
+        cert["evidence"]["discriminant_factorisation"] = [{"prime": str(p), "exponent": "1"} for p in pari.primes(count)]
+        failure = rejection(cert, check)
+        if check == "list size":
+            assert f"more than {most} primes" in failure.message and failure.values["primes"] == most + 1
+
+
+def made_up_pocklington(count: int, digits: int = 30) -> list:
+    """``count`` Pocklington certificates for distinct odd numbers of ``digits`` digits above the Miller–Rabin
+    bound (3.3·10²⁴), each listing the factor 2 with base 3: well formed, but no proof (2 alone is far below
+    the square root)."""
+    start = 10 ** (digits - 1) + 1
+    return [{"prime": str(start + 2 * i), "factors": [{"factor": "2", "base": "3"}]} for i in range(count)]
+
+
+def test_one_pocklington_certificate_over_the_documented_number_is_refused():
+    """Kills MAX_POCKLINGTON_CERTIFICATES 500 -> 501: the README documents 500 Pocklington certificates in one
+    certificate; 501 are refused as "primality limit" naming 500, before any is checked; 500 are read, and
+    refused only by the first certificate's own check ("pocklington": the factored part is too small)."""
+    most = documented("Pocklington certificates in one certificate")
+    past, at = conductor_certificate(), conductor_certificate()
+    past["evidence"]["pocklington"] = made_up_pocklington(most + 1)
+    at["evidence"]["pocklington"] = made_up_pocklington(most)
+    failure = rejection(past, "primality limit")
+    assert failure.message == f"more than {most} Pocklington certificates" and failure.values["certificates"] == most + 1
+    assert "too small" in rejection(at, "pocklington").message
+
+
+def test_a_pocklington_number_one_digit_over_the_documented_length_is_refused():
+    """Kills MAX_POCKLINGTON_DIGITS 1,000 -> 1,001: the README documents 1,000 digits for a number proven prime
+    by a Pocklington certificate; a certificate for a number of 1,001 digits is refused as "primality limit"
+    naming 1,000, one of 1,000 digits is read and refused only by its own check ("pocklington")."""
+    most = documented("digits of a number proven prime by a Pocklington certificate")
+    past, at = conductor_certificate(), conductor_certificate()
+    past["evidence"]["pocklington"] = made_up_pocklington(1, most + 1)
+    at["evidence"]["pocklington"] = made_up_pocklington(1, most)
+    failure = rejection(past, "primality limit")
+    assert f"of at most {most} digits" in failure.message
+    assert "too small" in rejection(at, "pocklington").message
+
+
+# --- limits.py: the analytic witnesses' limits ---
+
+def analytic_entry(truncation: int, bits: int, test_point: str, hints=()) -> dict:
+    """A witness of order 0 on the genuine conductor evidence of the curve of conductor 11 (rank 0 in
+    Cremona's table: tests/test_mutation_survivors_analytic.py)."""
+    from test_mutation_survivors_analytic import CONDUCTOR_11, entry
+
+    return entry(CONDUCTOR_11, 0, truncation, bits, test_point, hints)
+
+
+def analytic_rejection(witness) -> Rejection:
+    from test_mutation_survivors_analytic import CONDUCTOR_11, rejection as refused
+
+    return refused(CONDUCTOR_11, witness)
+
+
+def test_a_truncation_point_one_past_the_documented_largest_is_refused_by_that_limit():
+    """Kills MAX_TRUNCATION 12,000 -> 12,001: the README documents M up to 12,000; M = 12,001 (with b = 1, so
+    within the series work) is refused as "analytic limit" naming 12,000; M = 12,000 passes that test and is
+    refused only by the count work (Σ p ≤ 12,000 is over 5,000,000 without hints)."""
+    most = documented("truncation point M of an analytic witness")
+    failure = analytic_rejection(analytic_entry(most + 1, 1, "6/5"))
+    assert failure.check == "analytic limit" and failure.message == f"the truncation point must lie between 1 and {most}"
+    failure = analytic_rejection(analytic_entry(most, 1, "6/5"))
+    assert failure.check == "analytic limit" and "residue evaluations" in failure.message, str(failure)
+
+
+def test_a_test_point_denominator_one_past_the_documented_largest_is_refused():
+    """Kills MAX_TEST_POINT_DENOMINATOR 1,000 -> 1,001: the README documents a denominator of A up to 1,000;
+    A = 1002/1001 is refused as "analytic limit" naming 1,000, A = 1001/1000 passes the reading."""
+    from certify.verifier import lseries
+
+    most = documented("denominator of the test point A")
+    failure = analytic_rejection(analytic_entry(30, 32, f"{most + 2}/{most + 1}"))
+    assert failure.check == "analytic limit" and f"denominator of at most {most}" in failure.message
+    assert lseries.read_witness(analytic_entry(30, 32, f"{most + 1}/{most}"), "evidence.analytic")[4] == \
+        Fraction(most + 1, most)
+
+
+def count_work_hints(target: int, per_hint: int) -> tuple:
+    """(M, two hints) with Σ_{p ≤ M} p − p − q + 2·per_hint = ``target`` (the README's rule for the count work:
+    Σ p over the primes p ≤ M without a Frobenius hint, plus ``per_hint`` per hint), M the first prime with
+    Σ_{p ≤ M} p above ``target`` for which primes p < q ≤ M exist; the hints' traces and points are checked only
+    after the reading."""
+    from sympy import primerange
+
+    primes, total = list(primerange(2, 12_001)), 0
+    for i, m in enumerate(primes):
+        total += m
+        pair = total + 2 * per_hint - target
+        below = set(primes[:i + 1])
+        if total > target:
+            found = [p for p in primes[:i + 1] if pair - p in below and pair - p > p]
+            if found:
+                return m, [{"prime": str(v), "trace": "0", "point": ["0", "0"]} for v in (found[0], pair - found[0])]
+    raise AssertionError("no such M")
+
+
+def test_count_work_one_past_the_documented_budget_is_refused_and_at_it_is_read():
+    """Kills MAX_ANALYTIC_COUNT_WORK 5,000,000 -> 5,000,001 and FROBENIUS_HINT_WORK 1,500 -> 1,501: the README
+    documents at most 5,000,000 residue evaluations, Σ p over the primes p ≤ M without a Frobenius hint plus
+    1,500 per hint (primes by sympy). Two hints chosen to make that exactly 5,000,001 are refused as "analytic
+    limit" naming 5,000,000; two chosen to make it 5,000,000 pass the reading (at 1,501 per hint they would
+    count 5,000,002)."""
+    from certify.verifier import lseries
+
+    label = next(name for name in documented_limits() if name.startswith("point counts of an analytic witness"))
+    most, per_hint = documented("point counts of an analytic witness"), int(re.search(r"plus ([\d,]+) per hint",
+                                                                                     label).group(1).replace(",", ""))
+    assert per_hint == 1500
+    m, hints = count_work_hints(most + 1, per_hint)
+    failure = analytic_rejection(analytic_entry(m, 1, "6/5", hints))
+    assert failure.check == "analytic limit" and f"more than {most} residue evaluations" in failure.message
+    assert failure.values["work"] == most + 1
+    m, hints = count_work_hints(most, per_hint)
+    assert lseries.read_witness(analytic_entry(m, 1, "6/5", hints), "evidence.analytic")[2] == m
+
+
+# --- limits.py: the rank certificates' combined budget ---
+
+def rank_work_certificate(target: int) -> dict:
+    """The certifier's rank certificate of y² + y = x³ − x² − 10x − 20 (conductor 11, rank 0 in Cremona's
+    table; its upper bound is an analytic witness) with the witness set to M = 6,000 and b = 64 (series
+    384,000, within 400,000), a Frobenius hint at 2 when needed for parity, and made-up Pocklington certificates
+    in its conductor evidence, sized so that the first charge of the rank budget — by limits.MAX_RANK_WORK's
+    documented rule: a unit per 300 residue evaluations of the counts (Σ p ≤ M without a hint, plus 1,500 per
+    hint), two per Pocklington unit (⌈(digits / 100)³⌉ + 1 per listed factor, weighed by sizes alone), a unit
+    per 30 of M × b — is exactly ``target``. Nothing is counted, lifted or proven before that charge."""
+    from fractions import Fraction as F
+
+    from sympy import primerange
+
+    from certify.rank.certificate import certify_rank
+
+    cert = copy.deepcopy(certify_rank(tuple(F(c) for c in (0, -1, 1, -10, -20)), seconds=5))
+    truncation, bits = 6000, 64
+    for hints in ([], [{"prime": "2", "trace": "0", "point": ["0", "0"]}]):
+        counts = sum(primerange(2, truncation + 1)) - 2 * len(hints) + 1500 * len(hints)
+        rest = target - counts // 300 - truncation * bits // 30
+        if rest % 2 == 0:
+            break
+    primality = rest // 2
+    assert 3 <= primality <= documented("Pocklington work")
+    factor = {"factor": "2", "base": "3"}
+    # a one-digit n weighs 2 units a factor, a 110-digit one 3 (⌈(111/100)³⌉ + 1 as sized from its length)
+    listed = [{"prime": "7", "factors": [factor] * (primality // 2)}] if primality % 2 == 0 else \
+        [{"prime": "7", "factors": [factor] * ((primality - 3) // 2)}, {"prime": "1" * 110, "factors": [factor]}]
+    witness = cert["evidence"]["analytic"]
+    witness.update(truncation=str(truncation), precision_bits=str(bits), frobenius_hints=hints)
+    witness["conductor"]["pocklington"] = listed
+    return cert
+
+
+def test_rank_work_one_unit_past_the_documented_budget_is_refused():
+    """Kills MAX_RANK_WORK 40,000 -> 40,001: the README documents 40,000 units for all the costly steps of one
+    rank certificate together; a certificate whose counts, primality proofs and series are charged 40,001 is
+    refused as "rank work" naming 40,000 before any of them runs; one charged exactly 40,000 passes the budget
+    and is refused by the first check that runs: the reading of its made-up Pocklington certificates (a
+    one-digit n is below the Miller–Rabin bound)."""
+    most = documented("work of one rank certificate")
+    failure = rejection(rank_work_certificate(most + 1), "rank work")
+    assert failure.values["spent"] == most + 1 and f"limit of {most}" in failure.message, str(failure)
+    at = rejection(rank_work_certificate(most))
+    assert at.check != "rank work" and "Pocklington certificate is for a number above the Miller–Rabin bound" in \
+        at.message, str(at)
+
+
+# --- limits.py: bounds the compared quantity steps over, killed through the limit the rejection states ---
+
+def big_coefficient_torsion(digits: int) -> dict:
+    """A torsion certificate of y² = x³ + (10^(digits − 1) + 1)x + 1 claiming the trivial group, its integral
+    model the curve itself, with one ℓ-part for ℓ = 13 (hint prime 3) and one point count: the division
+    polynomials for 13 are then sized from a model of ``digits`` digits before anything is counted."""
+    cert = honest()
+    model = ["0", "0", "0", str(10 ** (digits - 1) + 1), "1"]
+    cert["curve"] = model
+    cert["claim"]["invariants"], cert["claim"]["generators"] = [], []
+    cert["evidence"]["integral_model"] = {"change": ["1", "0", "0", "0"], "curve": model}
+    cert["evidence"]["generator_orders"] = []
+    cert["evidence"]["primes"] = [{"p": "7", "count": "1"}]
+    cert["evidence"]["ell_parts"] = [{"ell": "13", "torsion": {"prime": "3"}, "classes": []}]
+    return cert
+
+
+def test_a_division_polynomial_over_the_documented_size_is_refused_naming_the_limit():
+    """Kills MAX_POLYNOMIAL_SIZE 2,000,000 -> 2,000,001. No certificate is refused by one bound and not the
+    other: the verifier's size is ℓ²(ℓ² × model digits + 1) for a prime ℓ ≤ 13, a multiple of ℓ², and
+    2,000,001 = 3 × 666,667 (sympy's factorint) is divisible by no square of a prime, so the size never equals
+    it. The mutant differs in what the rejection states: the README documents 2,000,000 as the size of a
+    division polynomial to be built; ℓ = 13 on a model of 71 digits (169 × (169 × 71 + 1) = 2,028,000) is
+    refused as "polynomial size" stating that limit, on one of 70 digits (1,999,439) it is not (the certificate
+    is refused later)."""
+    import sympy
+
+    most = documented("size of a division polynomial to be built")
+    assert max(sympy.factorint(most + 1).values()) == 1
+    assert 169 * (169 * 71 + 1) > most >= 169 * (169 * 70 + 1)
+    failure = rejection(big_coefficient_torsion(71), "polynomial size")
+    assert failure.values["limit"] == most and failure.values["model_digits"] == 71, str(failure)
+    assert rejection(big_coefficient_torsion(70)).check != "polynomial size"
+
+
+def test_an_exclusion_at_a_prime_over_the_documented_largest_is_refused_naming_it():
+    """Kills MAX_DISC_PRIME 1,000,000,000 -> 1,000,000,001. No certificate is refused by one bound and not the
+    other: the place of an exclusion by discs must be 2 or a prime of the factorisations, every one of them
+    proven prime before any exclusion is read, and 1,000,000,001 = 7 · 11 · 13 · 19 · 52579 (sympy's
+    factorint) is not prime. The mutant differs in what the rejection states: the README documents
+    1,000,000,000 as the largest prime of an exclusion by a disc cover; the genuine exclusion of d = p at p for
+    y² = x³ + px, p = 1,000,000,007 (built as in tests/test_mutation_survivors_rank.py, where the verifier
+    accepts it once the limit is raised to p) is refused as "exclusion place" stating 1,000,000,000."""
+    import sympy
+    from test_mutation_survivors_rank import rm, side_data
+
+    from certify.rank.certificate import certify_rank
+    from certify.verifier.descent import echelon, element_vector, reduce_vector
+
+    most = documented("largest prime p of an exclusion by a disc cover")
+    assert not sympy.isprime(most + 1)
+    p = 1_000_000_007
+    assert sympy.isprime(p) and p > most
+    cert = copy.deepcopy(certify_rank((Fraction(0), Fraction(0), Fraction(0), Fraction(p), Fraction(0)), seconds=5))
+    side = "phi" if rm.side_on_e() == "phi_dual" else "phi_dual"
+    _, _, primes, vectors = side_data(cert, side)
+    basis = echelon(vectors)
+    target = reduce_vector(element_vector(p, primes, ""), basis)
+    exclusions = cert["evidence"]["descent"][side]["exclusions"]
+    index = next(i for i, e in enumerate(exclusions)
+                 if reduce_vector(element_vector(int(e["d"]), primes, ""), basis) == target)
+    exclusions[index] = {"d": str(p), "place": str(p), "t_discs": [["0", "0"]], "s_discs": [["0", "1"]]}
+    failure = rejection(cert, "exclusion place")
+    assert failure.message.endswith(f"disc covers are checked only at primes up to {most}"), str(failure)
