@@ -898,3 +898,40 @@ def test_an_exclusion_at_a_prime_over_the_documented_largest_is_refused_naming_i
     exclusions[index] = {"d": str(p), "place": str(p), "t_discs": [["0", "0"]], "s_discs": [["0", "1"]]}
     failure = rejection(cert, "exclusion place")
     assert failure.message.endswith(f"disc covers are checked only at primes up to {most}"), str(failure)
+
+
+# --- limits.py: the isogeny budgets, one step past the documented values ---
+
+def test_kernels_one_unit_past_twice_the_documented_kernel_size_are_refused():
+    """Kills MAX_KERNEL_SIZE 100,000 -> 100,001 by behaviour (the isogeny group's tests compare their inputs with
+    the constant itself): the README documents 100,000 for one kernel polynomial (degree × coefficient digits),
+    and check_kernel_budget's docstring twice that for the kernels together. Two 163-kernels of 82 × 1,219,
+    a 2-kernel of 2 × 41 and a 5-kernel of 3 × 1 total 200,001 and are refused as "kernel size" for the kernels
+    together, naming 200,000 (one 5-kernel of 3 × 1 fewer is the isogeny tests' case exactly at the limit)."""
+    from test_mutation_survivors_isogeny import crafted_edge, integer_kernel, with_edges
+
+    most = 2 * documented("size of a kernel polynomial")
+    edges = [crafted_edge(163, integer_kernel(163, 1219)), crafted_edge(163, integer_kernel(163, 1219, top=1)),
+             crafted_edge(2, integer_kernel(2, 41)), crafted_edge(5, integer_kernel(5, 1))]
+    assert 2 * 82 * 1219 + 2 * 41 + 3 * 1 == most + 1
+    failure = rejection(with_edges(edges), "kernel size")
+    assert "together" in failure.message and failure.values == {"size": most + 1, "limit": most}, str(failure)
+
+
+def test_isogeny_identities_one_unit_past_the_documented_total_are_refused():
+    """Kills MAX_IDENTITY_TOTAL 250,000 -> 250,001 by behaviour: the README documents 250,000 for all the isogeny
+    identities of one certificate (each ℓ × estimated digits of its x-map, the isogeny tests' ``identity_size``).
+    Two equal 163-kernels of 352 digits (116,708 each), a 2-kernel of 1,999 digits (12,016) and a 3-kernel of
+    504 digits (4,569; found by a search) total 250,001: refused as "identity size" at the last edge, naming
+    250,000; under a limit of 250,001 they would pass to the check of repeated edges."""
+    from test_mutation_survivors_isogeny import crafted_edge, identity_size, integer_kernel, with_edges
+
+    most = documented("all isogeny identities of one certificate")
+    big = integer_kernel(163, 352)
+    cert = with_edges([crafted_edge(163, big), crafted_edge(163, big), crafted_edge(2, integer_kernel(2, 1999)),
+                       crafted_edge(3, integer_kernel(3, 504))])
+    sizes = [identity_size(cert, edge) for edge in cert["evidence"]["edges"]]
+    assert sum(sizes) == most + 1 and sum(sizes[:-1]) <= most and max(sizes) <= documented("one isogeny identity")
+    failure = rejection(cert, "identity size")
+    assert failure.values["total"] == most + 1 and failure.values["total_limit"] == most, str(failure)
+    assert failure.message.startswith("evidence.edges[3]:")
