@@ -262,6 +262,48 @@ def test_witness_primes_two_and_nine_are_refused_as_witness_primes():
         assert rejection(cert).check == "witness prime", p
 
 
+def witnesses_of_work(work: int, count: int) -> list:
+    """[(method, p)] for ``count`` witnesses whose stated primes cost exactly ``work`` by the weights that
+    limits.MAX_WORK documents (Σ p·deg over the polynomials solved from a prime hint: 15·p for the degree-15
+    X_0 polynomial of an x0-roots witness, p for a Frobenius point count): three x0-roots witnesses at the
+    largest prime below MAX_HINT_PRIME, then Frobenius witnesses at consecutive primes, the last one making
+    up the sum (primes by cypari2's precprime, nextprime and isprime)."""
+    from certify.pari import pari
+    from certify.verifier import limits
+
+    top = int(pari.precprime(limits.MAX_HINT_PRIME))
+    rest = work - 15 * 3 * top
+    start = rest // (count - 3)
+    while True:
+        primes, q = [], start
+        for _ in range(count - 4):
+            q = int(pari.nextprime(q + 1))
+            primes.append(q)
+        last = rest - sum(primes)
+        if 2 < last <= limits.MAX_HINT_PRIME and pari.isprime(last):
+            return [("x0-roots", top)] * 3 + [("frobenius", p) for p in primes + [last]]
+        start += 2
+
+
+def test_witness_primes_of_exactly_the_work_limit_pass_that_check():
+    """Kills ``work > MAX_WORK`` -> ``>=`` in check_work_budget: 24 witnesses whose primes cost exactly
+    MAX_WORK = 5,000,000 are allowed by the documented bound ("checked from the stated hints before any count
+    is run"); the certificate, with its last minimality hint removed, is then refused for its structure by
+    the next check, before any point count or root search."""
+    from certify.verifier import limits
+
+    cert = certificate(THIRTEEN)
+    chosen = witnesses_of_work(limits.MAX_WORK, len(cert["evidence"]["completeness"]))
+    assert sum((15 if method == "x0-roots" else 1) * p for method, p in chosen) == limits.MAX_WORK
+    for entry, (method, p) in zip(cert["evidence"]["completeness"], chosen):
+        curve, degree = entry["curve"], entry["degree"]
+        entry.clear()
+        entry.update({"curve": curve, "degree": degree, "method": method, "prime": str(p)})
+    del cert["evidence"]["minimality"][-1]
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("structure", {"entries": 1, "curves": 2})
+
+
 # --- minimality of the listed models ---
 
 def minimality_rejection(model, primes) -> Rejection:
