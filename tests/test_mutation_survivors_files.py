@@ -935,3 +935,39 @@ def test_isogeny_identities_one_unit_past_the_documented_total_are_refused():
     failure = rejection(cert, "identity size")
     assert failure.values["total"] == most + 1 and failure.values["total_limit"] == most, str(failure)
     assert failure.message.startswith("evidence.edges[3]:")
+
+
+def test_an_identity_over_the_documented_size_is_refused_naming_it():
+    """Kills MAX_IDENTITY_SIZE 160,000 -> 160,001 through the limit the rejection states (the isogeny group's
+    tests compare their inputs with the constant itself). No certificate is refused by one bound and not the
+    other: an identity's size is ℓ × (estimated digits + 8) for ℓ of Mazur's list (ℓ ≤ 163), and 160,001 is
+    prime (sympy), so no size equals it. The README documents 160,000 for one isogeny identity; a 163-kernel
+    of 520 digits (within the total) is refused as "identity size" stating that limit."""
+    import sympy
+    from test_mutation_survivors_isogeny import crafted_edge, identity_size, integer_kernel, with_edges
+
+    most = documented("one isogeny identity")
+    assert sympy.isprime(most + 1) and most + 1 > 163
+    cert = with_edges([crafted_edge(163, integer_kernel(163, 520))])
+    assert most < identity_size(cert, cert["evidence"]["edges"][0]) <= documented("all isogeny identities")
+    failure = rejection(cert, "identity size")
+    assert failure.values["limit"] == most, str(failure)
+
+
+def test_a_kernel_denominator_over_the_documented_size_is_refused_naming_it():
+    """Kills MAX_KERNEL_DENOMINATOR 10,000 -> 10,001 through the limit the rejection states. No certificate is
+    refused by one bound and not the other: the size is len(h) × digits of the denominator, len(h) =
+    (ℓ − 1)/2 + 1 (2 for ℓ = 2) for ℓ of Mazur's list, that is 2, 3, 4, 6, 7, 9, 10, 19, 22, 34 or 82, and
+    10,001 = 73 × 137 (sympy) is a multiple of none of them. The README documents 10,000 for the common
+    denominator of a kernel polynomial (degree × its digits); the 5-kernel x² + 1/d, d of 3,334 digits
+    (3 × 3,334 = 10,002), is refused as "kernel denominator" stating that limit."""
+    import sympy
+    from test_mutation_survivors_isogeny import crafted_edge, with_edges
+
+    most = documented("common denominator of a kernel polynomial")
+    mazur = (2, 3, 5, 7, 11, 13, 17, 19, 37, 43, 67, 163)   # Mazur 1978, the primes of rational isogenies over Q
+    lengths = {2 if ell == 2 else (ell - 1) // 2 + 1 for ell in mazur}
+    assert sympy.factorint(most + 1) == {73: 1, 137: 1} and all((most + 1) % n for n in lengths)
+    d = 10 ** 3333 + 1
+    failure = rejection(with_edges([crafted_edge(5, [Fraction(1, d), 0, 1])]), "kernel denominator")
+    assert failure.values["limit"] == most, str(failure)
