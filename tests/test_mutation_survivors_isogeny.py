@@ -242,6 +242,29 @@ def test_identities_exactly_at_their_total_limit_pass_that_check():
     assert rejection(cert).check == "distinct edges"
 
 
+def test_a_kernel_with_a_singular_velu_codomain_is_refused_as_such():
+    """Kills the deleted raise of ``discriminant(codomain) == 0`` and its 0 -> 1: on y² = x³ + 3x + 16
+    (Δ = −16(4·27 + 27·256) ≠ 0) the kernel x of degree 1 gives by Vélu's formulas for ℓ = 2 (Vélu 1971,
+    t = (6x0² + b2x0 + b4)/2 = 3, w = x0·t = 0, a4′ = a4 − 5t, a6′ = a6 − b2t − 7w) the codomain
+    y² = x³ − 12x + 16 = (x − 2)²(x + 4), a singular cubic (sympy factors it), which is no elliptic curve:
+    the edge is refused for that reason, before any x-map or identity is built from it."""
+    import sympy
+
+    from certify.verifier.isogeny import check_edge, velu_codomain
+
+    source, kernel = (0, 0, 0, 3, 16), [Fraction(0), Fraction(1)]
+    codomain = velu_codomain(source, 2, kernel)
+    assert codomain == (0, 0, 0, -12, 16)
+    x = sympy.Symbol("x")
+    assert sympy.factor(x ** 3 - 12 * x + 16) == (x - 2) ** 2 * (x + 4)
+    edge = {"where": "evidence.edges[0]", "ell": 2, "kernel": kernel, "source": 0, "target": 1,
+            "change": [Fraction(1), Fraction(0), Fraction(0), Fraction(0)]}
+    with pytest.raises(Rejection) as caught:
+        check_edge([source, (0, 0, 0, -12, 16)], edge)
+    assert (caught.value.check, caught.value.message) == ("kernel polynomial",
+                                                          "evidence.edges[0]: the Vélu codomain is singular")
+
+
 # --- the completeness witnesses ---
 
 def test_two_witnesses_for_one_curve_and_one_ell_are_refused():
