@@ -265,6 +265,25 @@ def test_a_kernel_with_a_singular_velu_codomain_is_refused_as_such():
                                                           "evidence.edges[0]: the Vélu codomain is singular")
 
 
+def test_a_kernel_through_a_two_torsion_point_is_refused_for_its_common_factor():
+    """Kills the deleted raise of ``not coprime_mod(n, d, p)``: on y² = x³ − x the 5-kernel x(x − 2) has the
+    root 0 of F = 4x³ − 4x (the point (0, 0) of order 2, sympy), where Vélu's term u_Q = F(x_Q) vanishes
+    (Vélu 1971; Kohel 1996, §2.4), so X = N/D has a pole of order 1 only at 0 and N shares the factor x with
+    D = κH²: no subgroup of order 5, refused for that common factor (the Vélu codomain
+    y² = x³ − 101x − 476 is non-singular, so that check passes first)."""
+    import sympy
+
+    from certify.verifier.isogeny import check_edge
+
+    x = sympy.Symbol("x")
+    assert (4 * x ** 3 - 4 * x).subs(x, 0) == 0 and sympy.discriminant(x ** 3 - 101 * x - 476) != 0
+    edge = {"where": "evidence.edges[0]", "ell": 5, "kernel": [Fraction(0), Fraction(-2), Fraction(1)],
+            "source": 0, "target": 1, "change": [Fraction(1), Fraction(0), Fraction(0), Fraction(0)]}
+    with pytest.raises(Rejection) as caught:
+        check_edge([(0, 0, 0, -1, 0), (0, 0, 0, -101, -476)], edge)
+    assert caught.value.check == "kernel polynomial" and "common factor" in caught.value.message
+
+
 # --- the completeness witnesses ---
 
 def test_two_witnesses_for_one_curve_and_one_ell_are_refused():
@@ -274,6 +293,21 @@ def test_two_witnesses_for_one_curve_and_one_ell_are_refused():
     cert["evidence"]["completeness"].append(copy.deepcopy(witness(cert, 1, 13)))
     failure = rejection(cert)
     assert (failure.check, failure.message) == ("completeness", "two witnesses for one curve and one ℓ")
+
+
+def test_a_class_without_its_thirteen_isogeny_and_its_witness_is_refused():
+    """Kills the deleted raise of a missing witness in read_witnesses: the class of THIRTEEN claimed as the
+    curve alone, its ℓ = 13 witness (and the 13-edge, the other curve) left out, every other witness kept.
+    ellisomat gives two curves joined by a 13-isogeny, so the claim is false; it is refused because no
+    witness bounds the 13-isogenies of the curve."""
+    cert = certificate(THIRTEEN)
+    cert["claim"]["curves"], cert["claim"]["degrees"] = cert["claim"]["curves"][:1], [["1"]]
+    cert["evidence"]["edges"], cert["evidence"]["minimality"] = [], cert["evidence"]["minimality"][:1]
+    cert["evidence"]["completeness"] = [w for w in cert["evidence"]["completeness"]
+                                        if w["curve"] == "0" and w["degree"] != "13"]
+    assert not claim_matches_reference(cert)
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("completeness", {"curve": 0, "ell": 13, "missing": 1})
 
 
 def test_witness_primes_two_and_nine_are_refused_as_witness_primes():
