@@ -310,6 +310,27 @@ def test_a_class_without_its_thirteen_isogeny_and_its_witness_is_refused():
     assert (failure.check, failure.values) == ("completeness", {"curve": 0, "ell": 13, "missing": 1})
 
 
+def test_a_frobenius_witness_at_a_bad_prime_is_refused():
+    """Kills ``int(discriminant(model)) % p == 0`` -> False in frobenius_bound: THIRTEEN claimed as the curve
+    alone (its 13-edge and other curve left out), its ℓ = 13 witness a Frobenius witness at p = 3, which
+    divides the discriminant (cypari2), so the reduction there is bad and the point count says nothing
+    about Frobenius; ellisomat gives a 13-isogeny, so the claim is false, and it is refused for the prime."""
+    from certify.pari import pari
+    from soundness_pool import pari_curve
+
+    cert = certificate(THIRTEEN)
+    assert int(pari_curve(THIRTEEN).disc()) % 3 == 0
+    cert["claim"]["curves"], cert["claim"]["degrees"] = cert["claim"]["curves"][:1], [["1"]]
+    cert["evidence"]["edges"], cert["evidence"]["minimality"] = [], cert["evidence"]["minimality"][:1]
+    cert["evidence"]["completeness"] = [w for w in cert["evidence"]["completeness"] if w["curve"] == "0"]
+    entry = witness(cert, 0, 13)
+    entry.clear()
+    entry.update({"curve": "0", "degree": "13", "method": "frobenius", "prime": "3"})
+    assert not claim_matches_reference(cert)
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("frobenius witness", {"p": 3, "ell": 13})
+
+
 def test_witness_primes_two_and_nine_are_refused_as_witness_primes():
     """Kills ``2 < p`` -> ``2 <= p`` and ``is_prime(p)`` -> True in witness_prime: a witness prime is an odd
     prime, so 2 and the composite 9 are refused by that rule (not later by the point count)."""
