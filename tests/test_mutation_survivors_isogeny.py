@@ -311,7 +311,8 @@ def test_a_class_without_its_thirteen_isogeny_and_its_witness_is_refused():
 
 
 def test_a_frobenius_witness_at_a_bad_prime_is_refused():
-    """Kills ``int(discriminant(model)) % p == 0`` -> False in frobenius_bound: THIRTEEN claimed as the curve
+    """Kills ``int(discriminant(model)) % p == 0`` -> False in frobenius_bound and the deleted raise after
+    it: THIRTEEN claimed as the curve
     alone (its 13-edge and other curve left out), its ℓ = 13 witness a Frobenius witness at p = 3, which
     divides the discriminant (cypari2), so the reduction there is bad and the point count says nothing
     about Frobenius; ellisomat gives a 13-isogeny, so the claim is false, and it is refused for the prime."""
