@@ -143,7 +143,7 @@ def test_a_kernel_denominator_exactly_at_the_limit_passes_that_check():
 
 
 def test_a_kernel_denominator_just_over_the_limit_is_refused_by_that_check():
-    """Kills the deleted raise of the kernel-denominator bound and its 100000 -> 100001: a 5-kernel
+    """Kills the deleted raise of the kernel-denominator bound and its 10000 -> 10001: a 5-kernel
     x² + 1/d with d of 11072 bits has degree × digits = 3 × 3334 = 10002 > MAX_KERNEL_DENOMINATOR."""
     from certify.verifier import limits
 
@@ -443,3 +443,22 @@ def test_a_model_that_scales_down_at_two_or_three_is_not_minimal(a, p):
     failure = minimality_rejection(model, [])
     assert (failure.message, failure.values["p"]) == ("claim.curves[0] is not minimal at p", p)
     check_reduced_minimal(a, {"primes": []}, "claim.curves[0]")
+
+
+def test_a_reduced_model_that_scales_down_at_three_only_with_s_one_is_refused_as_not_minimal():
+    """Kills ``(a1 + 2 * s) % p: 2 -> 3`` in scales_down_at: y² + xy + y = x³ − x² − 326x + 5077 is reduced
+    (a1 = a3 = 1, a2 = −1) but not minimal at 3: cypari2's ellglobalred (the reference library) gives the
+    change [u, r, s, t] = [3, 4, 1, 11] to the minimal model. With a1 = 1, the integrality of
+    a1′ = (a1 + 2s)/3 admits s ≡ 1 (mod 3) only; the mutant's (a1 + 3s) % 3 = 1 admits no s, finds no change
+    and would let the model pass as minimal."""
+    import cypari2
+
+    from certify.verifier.isogeny import check_reduced_minimal
+
+    model = (1, -1, 1, -326, 5077)
+    pari = cypari2.Pari()
+    change = pari.ellglobalred(pari.ellinit(list(model)))[1]
+    assert int(change[0]) == 3
+    with pytest.raises(Rejection) as caught:
+        check_reduced_minimal(model, {}, "curve 0")
+    assert caught.value.check == "minimal model" and caught.value.values["p"] == 3
