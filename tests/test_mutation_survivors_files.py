@@ -878,24 +878,13 @@ def test_an_exclusion_at_a_prime_over_the_documented_largest_is_refused_naming_i
     y² = x³ + px, p = 1,000,000,007 (built as in tests/test_mutation_survivors_rank.py, where the verifier
     accepts it once the limit is raised to p) is refused as "exclusion place" stating 1,000,000,000."""
     import sympy
-    from test_mutation_survivors_rank import rm, side_data
-
-    from certify.rank.certificate import certify_rank
-    from certify.verifier.descent import echelon, element_vector, reduce_vector
+    from test_mutation_survivors_rank import exclusion_of_p_at_p
 
     most = documented("largest prime p of an exclusion by a disc cover")
     assert not sympy.isprime(most + 1)
     p = 1_000_000_007
     assert sympy.isprime(p) and p > most
-    cert = copy.deepcopy(certify_rank((Fraction(0), Fraction(0), Fraction(0), Fraction(p), Fraction(0)), seconds=5))
-    side = "phi" if rm.side_on_e() == "phi_dual" else "phi_dual"
-    _, _, primes, vectors = side_data(cert, side)
-    basis = echelon(vectors)
-    target = reduce_vector(element_vector(p, primes, ""), basis)
-    exclusions = cert["evidence"]["descent"][side]["exclusions"]
-    index = next(i for i, e in enumerate(exclusions)
-                 if reduce_vector(element_vector(int(e["d"]), primes, ""), basis) == target)
-    exclusions[index] = {"d": str(p), "place": str(p), "t_discs": [["0", "0"]], "s_discs": [["0", "1"]]}
+    cert = copy.deepcopy(exclusion_of_p_at_p(p))
     failure = rejection(cert, "exclusion place")
     assert failure.message.endswith(f"disc covers are checked only at primes up to {most}"), str(failure)
 

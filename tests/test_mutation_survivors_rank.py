@@ -533,18 +533,12 @@ def test_a_witness_of_value_zero_is_refused_without_testing_zero_for_a_square():
 
 # --- descent.py: exclusions and disc covers ---
 
-def test_an_exclusion_at_a_prime_over_max_disc_prime_is_refused_by_the_limit(monkeypatch):
-    """Kills the deleted raise for ``p > MAX_DISC_PRIME`` in check_exclusion_place: y² = x³ + px with the prime
-    p = 1,000,000,007 ≡ 3 mod 4 (cypari2 isprime), rank 0 (cypari2 ellrank). On the side of Ē: y² = x³ − 4px,
-    f1 = pt⁴ − 4 ≡ −4 on Z_p and f2 = p − 4s⁴ = p·(unit) on pZ_p are non-squares (−1 is no square mod p; an odd
-    valuation), so d = p is excluded at p by the discs Z_p and pZ_p: a genuine exclusion, put in place of the one in
-    its coset, which the verifier accepts once the limit is raised to p, and refuses at the limit."""
+def exclusion_of_p_at_p(p: int) -> dict:
+    """The certificate of y² = x³ + px (p ≡ 3 mod 4 prime) with d = p excluded at p by the discs Z_p and pZ_p
+    on the side of Ē, in place of the exclusion of its coset (the argument is the next test's)."""
     from certify.rank.certificate import certify_rank
 
-    p = 1_000_000_007
-    assert pari.isprime(p) and p % 4 == 3 and p > limits.MAX_DISC_PRIME
     cert = certify_rank((Fraction(0), Fraction(0), Fraction(0), Fraction(p), Fraction(0)), seconds=5)
-    assert ellrank_bounds(cert["curve"]) == (0, 0) and cert["claim"]["rank_upper"] == "0"
     side = "phi" if rm.side_on_e() == "phi_dual" else "phi_dual"
     _, _, primes, vectors = side_data(cert, side)
     basis = echelon(vectors)
@@ -553,6 +547,19 @@ def test_an_exclusion_at_a_prime_over_max_disc_prime_is_refused_by_the_limit(mon
     index = next(i for i, e in enumerate(exclusions)
                  if reduce_vector(element_vector(int(e["d"]), primes, ""), basis) == target)
     exclusions[index] = {"d": str(p), "place": str(p), "t_discs": [["0", "0"]], "s_discs": [["0", "1"]]}
+    return cert
+
+
+def test_an_exclusion_at_a_prime_over_max_disc_prime_is_refused_by_the_limit(monkeypatch):
+    """Kills the deleted raise for ``p > MAX_DISC_PRIME`` in check_exclusion_place: y² = x³ + px with the prime
+    p = 1,000,000,007 ≡ 3 mod 4 (cypari2 isprime), rank 0 (cypari2 ellrank). On the side of Ē: y² = x³ − 4px,
+    f1 = pt⁴ − 4 ≡ −4 on Z_p and f2 = p − 4s⁴ = p·(unit) on pZ_p are non-squares (−1 is no square mod p; an odd
+    valuation), so d = p is excluded at p by the discs Z_p and pZ_p: a genuine exclusion, put in place of the one in
+    its coset, which the verifier accepts once the limit is raised to p, and refuses at the limit."""
+    p = 1_000_000_007
+    assert pari.isprime(p) and p % 4 == 3 and p > limits.MAX_DISC_PRIME
+    cert = exclusion_of_p_at_p(p)
+    assert ellrank_bounds(cert["curve"]) == (0, 0) and cert["claim"]["rank_upper"] == "0"
     failure = rejection(cert)
     assert failure.check == "exclusion place" and failure.values == {"place": p}
     monkeypatch.setattr(descent_module, "MAX_DISC_PRIME", p)
