@@ -7,7 +7,6 @@ from __future__ import annotations
 
 import json
 import os
-import re
 import sqlite3
 
 import pytest
@@ -78,8 +77,6 @@ def spoofed_bundle_file_name(folder) -> str:
     return path
 
 
-DIGEST_TEXT = re.compile(r"sha256:[0-9a-f]{64}")
-
 SOURCES = {"bundle member names": (spoofed_bundle, len(SPOOFS)), "relies_on keys": (spoofed_relies_on, 1),
            "a bundle's file name": (spoofed_bundle_file_name, len(SPOOFS)),
            "store columns": (spoofed_store, len(SPOOFS)), "file names": (spoofed_directory, len(SPOOFS))}
@@ -125,4 +122,4 @@ def test_a_name_cannot_carry_a_claim_or_digest_into_the_verdict_line(tmp_path):
         line = run(entry, "--quiet", str(path)).stdout.decode("utf-8").split("\n")[0]
         assert line.startswith("accepted: "), line
         assert line.split(" — ", 1)[1].startswith(describe_claim(cert) + " ["), line
-        assert line.rsplit(" ", 1)[1] == digest(cert) and DIGEST_TEXT.fullmatch(digest(cert)), line
+        assert line.rsplit(" ", 1)[1] == digest(cert), line

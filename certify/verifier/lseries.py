@@ -406,9 +406,10 @@ def with_tail(value: Interval, tail: Fraction) -> Interval:
 def analytic_intervals(coefficients: list, conductor: int, order: int, bits: int, test_point: Fraction,
                        bounds: dict) -> tuple:
     """(the root-number test, the value) as intervals, for a truncation M = len(coefficients) − 1 that has
-    passed ``check_truncation``, which gave the tail ``bounds``: for order 0, (G, L(E, 1)) with G = S(c/A) − S(cA) and L(E, 1) = S(c/A) + S(cA)
-    (valid once w = +1); for order 1, (D, L′(E, 1)) with D = S(c/A) + S(cA) − 2 S(c) and
-    L′(E, 1) = 2 Σ (a_n/n) E₁(cn) (valid once w = −1). Each series is widened by its tail bound."""
+    passed ``check_truncation``, which gave the tail ``bounds``: for order 0, (G, L(E, 1)) with
+    G = S(c/A) − S(cA) and L(E, 1) = S(c/A) + S(cA) (valid once w = +1); for order 1, (D, L′(E, 1)) with
+    D = S(c/A) + S(cA) − 2 S(c) and L′(E, 1) = 2 Σ (a_n/n) E₁(cn) (valid once w = −1). Each series is
+    widened by its tail bound."""
     truncation = len(coefficients) - 1
     work = working_bits(truncation, bits)
     rates = decay_rates(conductor, test_point, work)
