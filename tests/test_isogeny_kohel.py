@@ -1,7 +1,10 @@
 """Vélu/Kohel codomains and x-maps from kernel polynomials, against published formulas and cypari2."""
+import math
 from fractions import Fraction
 
 import pytest
+from hypothesis import given
+from hypothesis import strategies as st
 
 from certify.curves import Curve
 from certify.isogeny.kernels import kernels_by_factoring
@@ -75,3 +78,52 @@ def test_kernel_from_codomain_equals_ellisogeny_kernel():
     image, (_, _, kernel) = pari.ellisogeny(short, pari.elltors(short)[2][0])
     found = kernel_from_codomain(Fraction(A), Fraction(B), Fraction(str(image[3])), Fraction(str(image[4])), 5)
     assert found == [Fraction(str(kernel.polcoef(i))) for i in range(3)]
+
+
+def _x_map_degrees(a, ell, h):
+    """(deg N, leading coefficient of N, deg of κH^m, c) for the verifier's x-map of h."""
+    from certify.verifier.isogeny import x_map
+    n, H, kappa, m = x_map(a, ell, h)
+    common = 1
+    for c in h:
+        common = common * c.denominator // math.gcd(common, c.denominator)
+    return len(n) - 1, n[-1], m * (len(H) - 1), common
+
+
+@pytest.mark.parametrize("model, ell", [((0, -1, 1, -10, -20), 5), ((1, 0, 1, 4, -6), 3), ((1, 1, 1, -10, -10), 2),
+                                        ((1, -1, 1, -3, 3), 7), ((0, 0, 1, -2174420, 1234136692), 163)])
+def test_x_map_matches_cypari2_and_has_degree_ell(model, ell):
+    """Vélu 1971 and cypari2's ellisogeny: for each rational kernel polynomial (the 163-kernel from our
+    certificate), the verifier's x-map N/(κH^m) equals the x-coordinate map cypari2 returns, at ten rational
+    points, and deg N = ℓ, deg κH^m = ℓ − 1, with the leading coefficient 2c³ of N for ℓ odd (c the common
+    denominator of h): check_isogeny_identity relies on these instead of checking them."""
+    from certify.isogeny.certificate import certify_isogeny_class
+    from certify.verifier.isogeny import x_map
+    curve, E = Curve(model), pari.ellinit(list(model))
+    if ell == 2:
+        kernels = [[-Fraction(str(r)), Fraction(1)] for r in pari(f"nfroots(,{pari.elldivpol(E, 2)})")]
+    elif ell == 163:
+        cert = certify_isogeny_class(tuple(Fraction(c) for c in model))
+        kernels = [[Fraction(c) for c in edge["kernel"]] for edge in cert["evidence"]["edges"] if edge["source"] == "0"]
+    else:
+        kernels = kernels_by_factoring(curve, ell, len(_isogenies_of_degree(E, ell)))
+    assert kernels
+    for h in kernels:
+        n, H, kappa, m = x_map(curve.a, ell, h)
+        numerator, _, denominator = pari.ellisogeny(E, pari_polynomial(h))[1]   # x ↦ X/Z² (PARI's convention)
+        for x in (Fraction(k, 7) + 1000 for k in range(10)):
+            ours = sum(c * x ** i for i, c in enumerate(n)) / (kappa * sum(c * x ** i for i, c in enumerate(H)) ** m)
+            at = pari(str(x))
+            assert ours == Fraction(str(pari.substpol(numerator, "x", at) / pari.substpol(denominator, "x", at) ** 2))
+        degree, leading, denominator_degree, common = _x_map_degrees(curve.a, ell, h)
+        assert (degree, denominator_degree) == (ell, ell - 1)
+        assert ell == 2 or leading == 2 * common ** 3
+
+
+@given(st.sampled_from([3, 5, 7, 13]), st.lists(st.fractions(max_denominator=10 ** 6), min_size=6, max_size=6))
+def test_x_map_of_any_admitted_kernel_has_degree_ell(ell, coefficients):
+    """Vélu's formulas (Vélu 1971) for a made-up monic h of degree (ℓ − 1)/2, the only shape read_edge
+    admits: deg N = ℓ with leading coefficient 2c³, and deg κH² = ℓ − 1, whatever the coefficients."""
+    h = [Fraction(c) for c in coefficients[:(ell - 1) // 2]] + [Fraction(1)]
+    degree, leading, denominator_degree, common = _x_map_degrees((1, -1, 1, -3, 3), ell, h)
+    assert (degree, leading, denominator_degree) == (ell, 2 * common ** 3, ell - 1)

@@ -15,10 +15,11 @@ The argument, each step one function below:
    isogeny between them, is the least product of degrees along a path of edges.
 """
 from fractions import Fraction
+from itertools import count
 from math import gcd
 
-from certify.verifier.arith import (Budget, derivative, is_prime, parse_integer, parse_rational, poly_add, poly_mul,
-                                    poly_scale, poly_sub, rational_roots, trim)
+from certify.verifier.arith import (Budget, derivative, is_prime, parse_integer, parse_rational, poly_add, poly_eval,
+                                    poly_mul, poly_scale, poly_sub, rational_roots, trim)
 from certify.verifier.certificate import check_relies_on, field, rationals, read_curve
 from certify.verifier.curves import (b_invariants, c_invariants, change_model, count_points, discriminant,
                                      division_polynomials, two_division_polynomial)
@@ -393,11 +394,6 @@ def check_edge(curves: list, edge: dict) -> None:
                         "target model", codomain=list(codomain), target=list(curves[edge["target"]]))
 
 
-IDENTITY_PRIME = 2 ** 61 - 1
-"""The prime modulo which the isogeny identity is tried first, so that a false kernel costs a small
-fraction of the exact check."""
-
-
 def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> None:
     """(x, η) ↦ (N/D, η·(N/D)′) maps the source to the codomain, and N/D has degree ℓ.
 
@@ -405,49 +401,51 @@ def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> N
     with D = κH^m (``x_map``) and V = N′H − m·NH′ this is F·κ·V² = H^(2−m)·Q after dividing by κH^m,
     and it is multiplied by δ, the common denominator of b4′ and b6′, to stay in integers. The map takes
     O to O since deg N > deg D, so it is an isogeny (Silverman III.4.8) of degree deg(N/D) = ℓ when N and
-    D are coprime, and its kernel is O and the points with D(x) = 0. The identity is checked modulo
-    IDENTITY_PRIME first and then exactly; only the exact check proves it."""
+    D are coprime, and its kernel is O and the points with D(x) = 0.
+
+    deg(N/D) = ℓ: ``read_edge`` admits only a monic h of degree (ℓ − 1)/2 (1 for ℓ = 2), so with c the
+    common denominator of h, N has the leading coefficient 2c³ (ℓ odd: the three terms of ``x_map`` give
+    c³(2ℓ − 12n + 8n) with n = (ℓ − 1)/2) or 4·den(F′(x0))·c (ℓ = 2) at x^ℓ, and D = κH^m has degree ℓ − 1.
+    N and D are coprime when they are modulo a prime p dividing neither leading coefficient; the first
+    such prime after 10^6 is at most the (k+1)-th, k the number of primes dividing the two, which the
+    digit limits on the kernel bound. Both sides of the identity are integer polynomials of degree at most
+    ``identity_degree``, so they are equal when they agree at that many points plus one (a nonzero
+    polynomial has at most as many roots as its degree): the identity is checked exactly at
+    x = 0, 1, 2, …, and a false kernel is refused at the first point where the sides differ."""
     if discriminant(codomain) == 0:
         raise Rejection("kernel polynomial", f"{where}: the Vélu codomain is singular")
     n, H, kappa, m = x_map(source, ell, h)
     d = poly_scale(kappa, H if m == 1 else poly_mul(H, H))
-    if len(n) - 1 != ell or len(d) - 1 != ell - 1:
-        raise Rejection("kernel polynomial", f"{where}: the x-map does not have degree ℓ", ell=ell)
-    p = next((q for q in range(10 ** 6 + 3, 10 ** 6 + 10 ** 4, 2) if is_prime(q) and n[-1] % q and d[-1] % q), None)
-    if p is None:
-        raise Rejection("kernel polynomial", f"{where}: no prime near 10^6 is free of the leading coefficients")
+    p = next(q for q in count(10 ** 6 + 3, 2) if is_prime(q) and n[-1] % q and d[-1] % q)
     if not coprime_mod(n, d, p):
         raise Rejection("kernel polynomial", f"{where}: the x-map has a common factor, so the kernel polynomial "
                         "does not define a subgroup of order ℓ", ell=ell)
     _, b4, b6, _ = b_invariants(codomain)
     delta = b4.denominator * b6.denominator // gcd(b4.denominator, b6.denominator)
     invariants = (int(b_invariants(source)[0]), int(b4 * delta), int(b6 * delta), delta)
-    for modulus in (IDENTITY_PRIME, None):
-        left, right = identity_sides([int(c) for c in curve_cubic(source)], n, H, d, kappa, m, invariants, modulus)
+    polynomials = ([int(c) for c in curve_cubic(source)], n, derivative(n), H, derivative(H), d)
+    for x in range(identity_degree(n, H, m) + 1):
+        left, right = identity_sides_at(x, polynomials, kappa, m, invariants)
         if left != right:
             raise Rejection("kernel polynomial", f"{where}: the kernel polynomial does not define an ℓ-isogeny to "
-                            "the Vélu codomain (the isogeny identity fails"
-                            + (" modulo 2^61 - 1)" if modulus else ")"), ell=ell)
+                            f"the Vélu codomain (the isogeny identity fails at x = {x})", ell=ell)
 
 
-def identity_sides(f, n, H, d, kappa: int, m: int, invariants: tuple, modulus) -> tuple:
-    """(δκ·F·V², H^(2−m)·δQ) of ``check_isogeny_identity``, with Q evaluated as N(N(4N + b2D) + 2b4′D²) + b6′D³;
-    modulo ``modulus`` (every product reduced) or exactly when it is None. ``invariants`` is
+def identity_degree(n: list, H: list, m: int) -> int:
+    """A bound on the degrees of both sides of the isogeny identity: δκ·F·V² has degree at most
+    3 + 2(deg N + deg H − 1), and H^(2−m)·δQ at most (2 − m)·deg H + 3·deg N, since deg D < deg N."""
+    return max(3 + 2 * (len(n) + len(H) - 3), (2 - m) * (len(H) - 1) + 3 * (len(n) - 1))
+
+
+def identity_sides_at(x: int, polynomials: tuple, kappa: int, m: int, invariants: tuple) -> tuple:
+    """(δκ·F·V², H^(2−m)·δQ) of ``check_isogeny_identity`` at the integer x, with Q evaluated as
+    N(N(4N + b2D) + 2b4′D²) + b6′D³; ``polynomials`` is (F, N, N′, H, H′, D) and ``invariants`` is
     (b2, δb4′, δb6′, δ)."""
-    def reduce(g: list) -> list:
-        return g if modulus is None else trim([c % modulus for c in g])
-
-    def mul(g: list, k: list) -> list:
-        return reduce(poly_mul(g, k))
-
+    f, n, dn, h, dh, d = (poly_eval(g, x) for g in polynomials)
     b2, b4, b6, delta = invariants
-    f, n, H, d = reduce(f), reduce(n), reduce(H), reduce(d)
-    v = poly_sub(mul(derivative(n), H), poly_scale(m, mul(n, derivative(H))))
-    left = reduce(poly_scale(delta * kappa, mul(f, mul(v, v))))
-    d2 = mul(d, d)
-    q = poly_add(mul(n, poly_add(mul(n, poly_add(poly_scale(4 * delta, n), poly_scale(delta * b2, d))),
-                                 poly_scale(2 * b4, d2))), poly_scale(b6, mul(d2, d)))
-    return left, reduce(q if m == 2 else poly_mul(H, q))
+    v = dn * h - m * n * dh
+    q = n * (n * (4 * delta * n + delta * b2 * d) + 2 * b4 * d * d) + b6 * d ** 3
+    return delta * kappa * f * v * v, q if m == 2 else h * q
 
 
 def distinct_kernels(edges: list) -> dict:
