@@ -6,6 +6,7 @@ against the tests of its module, one process at a time; prints each survivor and
     python bench/bench_mutation.py torsion.py tate.py  # some modules
     python bench/bench_mutation.py --jsonl out.jsonl   # also one JSON line per mutant
     python bench/bench_mutation.py --only ids.txt      # the mutants listed (e.g. an earlier run's survivors)
+    python bench/bench_mutation.py --shard 1/2 --jsonl b.jsonl   # every second mutant, from the second on
     python bench/bench_mutation.py --report a.jsonl --report b.jsonl [MODULES]   # earlier runs' table
 
 With ``--report`` the outcome of each current mutant is the last one the files record (a later file, say
@@ -53,6 +54,8 @@ def main() -> None:
                         "all the tests involved, plus 20)")
     parser.add_argument("--resume", action="store_true", help="keep the outcomes already in the --jsonl file "
                         "and run only the other mutants")
+    parser.add_argument("--shard", metavar="K/N", help="run only the mutants K, K + N, K + 2N, … (from 0) of the "
+                        "selection: N such runs side by side, one a core, together make the whole run")
     parser.add_argument("--report", action="append", metavar="JSONL",
                         help="print the table of this earlier run (repeat for several, later ones override)")
     args = parser.parse_args()
@@ -61,11 +64,14 @@ def main() -> None:
     modules = args.modules or list(mutation_run.MATHEMATICAL) + [m for m in mutation_run.TESTS
                                                                   if m not in mutation_run.MATHEMATICAL]
     extra = [name for name in mutation_run.SURVIVOR_TESTS if (mutation_run.ROOT / name).exists()]
-    workspace = mutation_run.Workspace(extra=extra, fork=True)
+    workspace = mutation_run.Workspace(extra=extra)
     selected = mutation_run.mutants(workspace.directory, modules)
     if args.only:
         wanted = set(Path(args.only).read_text().splitlines())
         selected = [mutant for mutant in selected if mutant.identifier in wanted]
+    if args.shard:
+        index, count = map(int, args.shard.split("/"))
+        selected = selected[index::count]
     print(f"{len(selected)} mutants of {len(modules)} modules", flush=True)
     earlier = {}
     if args.resume and args.jsonl and Path(args.jsonl).exists():
@@ -89,7 +95,7 @@ def main() -> None:
     finally:
         workspace.close()
     print(table(results))
-    print(f"full run: {time.perf_counter() - start:.0f} s, one process")
+    print(f"run: {time.perf_counter() - start:.0f} s, one process" + (f", shard {args.shard}" if args.shard else ""))
 
 
 def report(paths: list, modules: list) -> None:

@@ -14,7 +14,8 @@ Each mutant is the smallest change that weakens (or shifts) one check of the ver
 
 The mutants are made on the source text from the AST (a mutant replaces the exact span of one node),
 in a copy of the repository, so nothing in the working tree changes; for each one the test files that
-exercise its module (``TESTS``) run with ``pytest -x -q -p no:cacheprovider`` under a timeout. A mutant
+exercise its module (``TESTS``) run one after the other, up to the first that fails, with
+``pytest -x -q -p no:cacheprovider`` under a timeout. A mutant
 is *killed* when some test fails, *timeout* when the tests do not end in time (the mutant loops: also
 detected), *equivalent* when a ``mutation_equivalent*.txt`` file beside this one gives the reason it computes
 the same result, and otherwise a *survivor*.
@@ -283,6 +284,9 @@ stopped in the first test it traps rather than at the mutant's timeout."""
 TIMED_OUT = 124
 """The forked child's exit status when a test ran over TEST_SECONDS."""
 
+NO_TESTS_COLLECTED = 5
+"""pytest's exit status for a file none of whose tests is selected (the ``table`` marker): not a failure."""
+
 
 class MutantTimeout(BaseException):
     """A test ran over TEST_SECONDS: a BaseException, so that no ``except Exception`` of the code under test
@@ -317,9 +321,10 @@ class _TestAlarm:
 
 class Workspace:
     """A copy of the repository (its committed tree when it is a git checkout, plus ``extra`` files from the
-    working tree) in which one module at a time is mutated."""
+    working tree) in which one module at a time is mutated. Its runner forks: it imports ``PRELOADED`` once,
+    and nothing of certify, so a process with threads must not use it."""
 
-    def __init__(self, root: Path = ROOT, extra=(), fork: bool = False):
+    def __init__(self, root: Path = ROOT, extra=()):
         self.directory = Path(tempfile.mkdtemp(prefix="certify-mutation-"))
         if (root / ".git").exists():
             archive = subprocess.run(["git", "-C", str(root), "archive", "HEAD"], check=True, capture_output=True)
@@ -330,33 +335,17 @@ class Workspace:
         for name in extra:
             shutil.copy2(root / name, self.directory / name)
         self.environment = dict(PYTHONPATH=str(self.directory), PYTHONDONTWRITEBYTECODE="1")
-        self.fork = fork
-        if fork:
-            for library in PRELOADED:
-                __import__(library)
+        for library in PRELOADED:
+            __import__(library)
 
     def run(self, tests, timeout: float) -> str:
-        """'passed', 'failed' or 'timeout' for the test files in this copy as it stands."""
+        """'passed', 'failed' or 'timeout' for the test files in this copy as it stands: pytest in a child
+        forked from this process (about a second saved per mutant), which imports the verifier and the tests
+        afresh, from the copy, which also comes first on the path of any process a test starts. The child
+        runs one file after the other and stops at the first that fails, so that a mutant killed by the
+        first file does not pay for collecting the others."""
         shutil.rmtree(self.directory / ".hypothesis", ignore_errors=True)
         present = [t for t in tests if (self.directory / t).exists()]
-        arguments = ["-x", "-q", "-p", "no:cacheprovider", "--rootdir", str(self.directory), *present]
-        if self.fork:
-            return self._run_forked(arguments, timeout)
-        process = subprocess.Popen([sys.executable, "-m", "pytest", *arguments], cwd=self.directory,
-                                   env=dict(os.environ, **self.environment), stdout=subprocess.DEVNULL,
-                                   stderr=subprocess.DEVNULL, start_new_session=True)
-        try:
-            return "passed" if process.wait(timeout) == 0 else "failed"
-        except subprocess.TimeoutExpired:
-            os.killpg(process.pid, 9)
-            process.wait()
-            return "timeout"
-
-    def _run_forked(self, arguments: list, timeout: float) -> str:
-        """pytest in a child forked from this process, which has imported ``PRELOADED`` once (about a
-        second saved per mutant) and nothing of certify: the child imports the verifier and the tests
-        afresh, from the copy, which also comes first on the path of any process a test starts. Only for
-        a runner of its own (``bench/bench_mutation.py``): a process with threads must not fork."""
         child = os.fork()
         if child == 0:   # the child: never returns
             status = 3
@@ -370,8 +359,12 @@ class Workspace:
                 sys.path[:0] = [str(self.directory), str(self.directory / "tests")]
                 import pytest
                 watch = _TestAlarm()
-                status = int(pytest.main(arguments, plugins=[watch]))
-                status = TIMED_OUT if watch.fired else status
+                for name in present:
+                    status = int(pytest.main(["-x", "-q", "-p", "no:cacheprovider", "--rootdir", str(self.directory),
+                                              name], plugins=[watch]))
+                    status = TIMED_OUT if watch.fired else 0 if status == NO_TESTS_COLLECTED else status
+                    if status:
+                        break
             finally:
                 os._exit(status)
         deadline = time.monotonic() + timeout
@@ -437,7 +430,7 @@ def quick(size: int, timeout: float) -> int:
     its own, which forks a child per mutant (``tests/test_mutation_quick.py`` starts it)."""
     reasons = equivalent_reasons()
     extra = [name for name in SURVIVOR_TESTS if (ROOT / name).exists()]
-    workspace = Workspace(extra=extra, fork=True)
+    workspace = Workspace(extra=extra)
     try:
         sample = quick_sample([m for m in mutants(workspace.directory) if m.identifier not in reasons], size)
         results = run(sample, workspace, lambda m, outcome, seconds: print(f"{outcome}: {m.identifier} "
