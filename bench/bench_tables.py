@@ -2,6 +2,7 @@
 process, on two fixtures; nothing is asserted.
 
     python bench/bench_tables.py [--sample 2000] [--first 500] [--slowest 10]
+    python bench/bench_tables.py --traps
 
 The fixtures: a fixed random sample of curves of conductor 100,000–499,999
 (tests/data/conductor_100000_499999_sample.txt, what most of a table looks like) and the first curves
@@ -17,7 +18,8 @@ processes are started one after the other and timed from start to exit:
 The ratios are to (1), by wall clock and by CPU time (user + system of the process and its children,
 which other jobs on the machine lengthen less). The load average is printed before each process: the
 machine's 2 cores are shared, and any load above the benchmark's own lengthens every figure. Then the slowest curves of
-each fixture, both certificates certified in this process and timed one curve at a time.
+each fixture, both certificates certified in this process and timed one curve at a time, and the trap
+classes of the isogeny issue (``trap_classes``), each certified and verified in this process.
 """
 from __future__ import annotations
 
@@ -107,12 +109,56 @@ def slowest(name: str, curves: list, count: int) -> None:
         print(f"  {1000 * seconds:8.1f} ms  {a}")
 
 
+def trap_classes() -> dict:
+    """The traps of tests/test_isogeny_traps.py, one curve per class: label → a-invariants."""
+    sys.path.insert(0, str(ROOT))
+    from certify.curves import Curve
+    from certify.pari import pari
+    from certify.verifier.isogeny import FINITE_J
+
+    def with_j(j):
+        return Curve(tuple(Fraction(str(c)) for c in pari.ellfromj(str(j)))).minimal_model()[0].a
+
+    traps = {"Sutherland's j = 2268945/128": with_j(Fraction(2268945, 128))}
+    traps.update({f"j-list, degree {ell}, j = {j}": with_j(j) for ell in (11, 17, 19, 37, 43, 67)
+                  for j in FINITE_J[ell]})
+    traps.update({"degree 163, conductor 163^2": (0, 0, 1, -2174420, 1234136692),
+                  "8 curves, degree 16": (1, 1, 1, -10, -10), "degree 25": (0, -1, 1, -10, -20),
+                  "degree 27": (0, 0, 1, 0, -7), "full 2-torsion": (0, 0, 0, -1, 0),
+                  "every curve and every ell": (1, 0, 1, 4, -6)})
+    traps.update({f"y^2 = x^3 + {k}": (0, 0, 0, 0, k) for k in (1, -1, 2, 16, -432, 3, -27, 5)})
+    traps.update({f"y^2 = x^3 + {d}x": (0, 0, 0, d, 0) for d in (1, -1, 2, -2, 4, -4, 3, 5)})
+    return traps
+
+
+def trap_times() -> None:
+    """Certify and verify time of the isogeny-class certificate of each trap class, slowest first."""
+    from certify.isogeny.certificate import certify_isogeny_class
+    from certify.verifier import verify
+
+    times = []
+    for label, a in trap_classes().items():
+        started = time.process_time()
+        certificate = certify_isogeny_class(tuple(Fraction(c) for c in a))
+        certifying = time.process_time() - started
+        started = time.process_time()
+        verify(certificate)
+        times.append((certifying, time.process_time() - started, label, len(certificate["claim"]["curves"])))
+    times.sort(reverse=True)
+    print(f"trap classes of the isogeny issue, CPU seconds in this process ({load()}):")
+    for certifying, verifying, label, size in times:
+        print(f"  certify {certifying:6.2f} s  verify {verifying:6.2f} s  {size} curves  {label}")
+
+
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--sample", type=int, default=2000, help="curves of the large-conductor sample")
     parser.add_argument("--first", type=int, default=500, help="first curves of the conductor < 1000 table")
     parser.add_argument("--slowest", type=int, default=10, help="slowest curves listed per fixture (0: none)")
+    parser.add_argument("--traps", action="store_true", help="only the trap classes of the isogeny issue")
     args = parser.parse_args()
+    if args.traps:
+        return trap_times()
     counts = {"sample": args.sample, "first": args.first}
     with tempfile.TemporaryDirectory() as folder:
         for name, count in counts.items():
@@ -121,6 +167,7 @@ def main() -> None:
     for name, count in counts.items():
         if count and args.slowest:
             slowest(name, fixture_curves(FIXTURES[name], count), args.slowest)
+    trap_times()
 
 
 if __name__ == "__main__":

@@ -69,15 +69,20 @@ def test_non_kernel_polynomial_is_refused():
             check_isogeny_identity(a, velu_codomain(a, 5, h), 5, h, "test")
 
 
-def test_kernel_from_codomain_equals_ellisogeny_kernel():
+@pytest.mark.parametrize("u", [1, 11, Fraction(1, 3), Fraction(7, 10)])
+def test_kernel_from_codomain_equals_ellisogeny_kernel(u):
     """Stark's method (Stark 1972; Bostan–Morain–Salvy–Schost 2008) recovers the kernel polynomial that
-    cypari2's ellisogeny reports for the 5-isogeny of y² + y = x³ − x² − 10x − 20 in short form."""
+    cypari2's ellisogeny reports for the 5-isogeny of y² + y = x³ − x² − 10x − 20 in short form, scaled
+    by u (y² = x³ + A/u⁴·x + B/u⁶): an integral kernel for u = 1 and 1/3, and kernels with denominators,
+    which need the rational reconstruction, for u = 11 and 7/10."""
     E = pari.ellinit([0, -1, 1, -10, -20])
-    A, B = -27 * int(E[9]), -54 * int(E[10])
-    short = pari.ellinit([A, B])
+    A, B = Fraction(-27 * int(E[9])) / u ** 4, Fraction(-54 * int(E[10])) / u ** 6
+    short = pari.ellinit([str(A), str(B)])
     image, (_, _, kernel) = pari.ellisogeny(short, pari.elltors(short)[2][0])
-    found = kernel_from_codomain(Fraction(A), Fraction(B), Fraction(str(image[3])), Fraction(str(image[4])), 5)
-    assert found == [Fraction(str(kernel.polcoef(i))) for i in range(3)]
+    found = kernel_from_codomain(A, B, Fraction(str(image[3])), Fraction(str(image[4])), 5)
+    expected = [Fraction(str(kernel.polcoef(i))) for i in range(3)]
+    assert found == expected
+    assert any(c.denominator > 1 for c in expected) == (u in (11, Fraction(7, 10)))
 
 
 def _x_map_degrees(a, ell, h):

@@ -102,12 +102,21 @@ def reconstruct(residue: int, modulus: int):
     return Fraction(r1, s1)
 
 
+def symmetric(residue: int, modulus: int) -> Fraction:
+    """The integer of least absolute value congruent to residue (the kernel polynomials of integral short
+    models are mostly integral: this needs half the modulus that ``reconstruct`` needs)."""
+    residue %= modulus
+    return Fraction(residue - modulus if 2 * residue > modulus else residue)
+
+
 def kernel_from_codomain(A: Fraction, B: Fraction, A2: Fraction, B2: Fraction, ell: int):
     """The kernel polynomial (monic, constant term first) of the normalised ℓ-isogeny from
-    y² = x³ + Ax + B to y² = x³ + A′x + B′, ℓ odd, or None if there is none."""
+    y² = x³ + Ax + B to y² = x³ + A′x + B′, ℓ odd, or None if there is none. After each prime the
+    integer and the rational candidate are formed; one that a further prime leaves unchanged is checked
+    exactly, and None is returned when the rational one is stable and fails that check."""
     short, target = (0, 0, 0, Fraction(A), Fraction(B)), (0, 0, 0, Fraction(A2), Fraction(B2))
     count = 2 * (ell - 1) + 2
-    residues, modulus, previous = None, 1, None
+    residues, modulus, previous = None, 1, (None, None)
     p = int(pari.nextprime(2 ** 62))
     for _ in range(MAX_PRIMES):
         values = [int(Fraction(v).numerator * pow(Fraction(v).denominator, -1, p) % p) for v in (A, B, A2, B2)]
@@ -123,10 +132,12 @@ def kernel_from_codomain(A: Fraction, B: Fraction, A2: Fraction, B2: Fraction, e
             inverse = pow(modulus, -1, p)
             residues = [r + modulus * ((x - r) * inverse % p) for r, x in zip(residues, h)]
         modulus *= p
+        whole = [symmetric(r, modulus) for r in residues]
+        if whole == previous[0] and velu_codomain(short, ell, whole) == target:
+            return whole
         candidate = [reconstruct(r, modulus) for r in residues]
-        if None in candidate or candidate != previous:
-            previous = candidate
-            p = int(pari.nextprime(max(p, 2 ** LARGE_PRIME_BITS) + 1))
-            continue
-        return candidate if velu_codomain(short, ell, candidate) == target else None
+        if None not in candidate and candidate == previous[1]:
+            return candidate if velu_codomain(short, ell, candidate) == target else None
+        previous = whole, candidate
+        p = int(pari.nextprime(max(p, 2 ** LARGE_PRIME_BITS) + 1))
     return None
