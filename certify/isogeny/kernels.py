@@ -6,6 +6,7 @@ For ℓ ≤ 13 h is found among the products of irreducible factors of ψ_ℓ; G
 through a cyclic quotient of (Z/ℓ)*/±1, freely, so the factors of one kernel have one degree. For the
 larger ℓ of the finite j-lists the codomain is found first (certify.isogeny.modular) and the kernel
 from it (certify.isogeny.series)."""
+import math
 from fractions import Fraction
 from itertools import combinations
 
@@ -79,10 +80,15 @@ def _multiply(f: list, g: list) -> list:
 
 def _substitute_affine(h: list, scale: Fraction, shift: Fraction) -> list:
     """h(scale·x + shift)/scale^deg h, monic again: the kernel polynomial after x_short = scale·x + shift
-    (x_short = 36x + 3b2 takes a model to its short model y² = x³ − 27c4x − 54c6)."""
-    out = [Fraction(h[-1])]
-    for c in reversed(h[:-1]):
-        out = _multiply(out, [shift, scale])
-        out[0] += c
-    lead = out[-1]
-    return [c / lead for c in out]
+    (x_short = 36x + 3b2 takes a model to its short model y² = x³ − 27c4x − 54c6). With q the common
+    denominator of scale and shift, S = q·scale and T = q·shift, and d that of the c_i,
+    d·q^n·h(scale·x + shift) = Σ d·c_i·q^(n−i)·(Sx + T)^i, by Horner's rule in integers."""
+    q = math.lcm(Fraction(scale).denominator, Fraction(shift).denominator)
+    S, T = int(scale * q), int(shift * q)
+    d = math.lcm(*(Fraction(c).denominator for c in h))
+    n = len(h) - 1
+    out = [int(h[n] * d)]
+    for i in range(n - 1, -1, -1):
+        out = [T * a + S * b for a, b in zip(out + [0], [0] + out)]
+        out[0] += int(h[i] * d) * q ** (n - i)
+    return [Fraction(c, out[-1]) for c in out]
