@@ -281,42 +281,39 @@ TEST_SECONDS = 60
 and several times as long when several runs share the 2 cores): a mutant that makes the verifier loop is
 stopped in the first test it traps rather than at the mutant's timeout."""
 
-TIMED_OUT = 124
-"""The forked child's exit status when a test ran over TEST_SECONDS."""
-
 NO_TESTS_COLLECTED = 5
 """pytest's exit status for a file none of whose tests is selected (the ``table`` marker): not a failure."""
 
-
-class MutantTimeout(BaseException):
-    """A test ran over TEST_SECONDS: a BaseException, so that no ``except Exception`` of the code under test
-    swallows it."""
+TIMEOUT_RECORD = ".test-timeout"
+"""The file, in the copy, to which the watchdog writes the stack of a test that ran over TEST_SECONDS."""
 
 
-class _TestAlarm:
-    """A pytest plugin that fails a test running over TEST_SECONDS, fixtures included (SIGALRM, handled
-    between two bytecodes), and the collection (which builds the certificate pools) over as much."""
+class _TestWatchdog:
+    """A pytest plugin that ends the process when one test, fixtures included, or the collection (which
+    builds the certificate pools) runs over TEST_SECONDS, after writing the stacks to TIMEOUT_RECORD.
+    It is faulthandler's watchdog thread, not a signal: the tests' code sets SIGALRM alarms of its own
+    (the certifier's factoring limit, through cysignals, which interrupts PARI only with its own
+    handler), and a loop inside PARI is stopped as surely as one in Python."""
 
-    def __init__(self):
-        self.fired = False
+    def __init__(self, record):
+        self.record = record
 
-    def _ring(self, signum, frame):
-        self.fired = True
-        raise MutantTimeout(f"a test ran over {TEST_SECONDS} s under the mutant")
+    def _arm(self) -> None:
+        import faulthandler
+        faulthandler.dump_traceback_later(TEST_SECONDS, exit=True, file=self.record)
 
-    def _arm(self, seconds: int) -> None:
-        import signal
-        signal.signal(signal.SIGALRM, self._ring)
-        signal.alarm(seconds)
+    def _disarm(self) -> None:
+        import faulthandler
+        faulthandler.cancel_dump_traceback_later()
 
     def pytest_sessionstart(self, session):
-        self._arm(TEST_SECONDS)
+        self._arm()
 
     def pytest_runtest_logstart(self, nodeid, location):
-        self._arm(TEST_SECONDS)
+        self._arm()
 
     def pytest_runtest_logfinish(self, nodeid, location):
-        self._arm(0)
+        self._disarm()
 
 
 class Workspace:
@@ -346,6 +343,8 @@ class Workspace:
         first file does not pay for collecting the others."""
         shutil.rmtree(self.directory / ".hypothesis", ignore_errors=True)
         present = [t for t in tests if (self.directory / t).exists()]
+        record = self.directory / TIMEOUT_RECORD
+        record.write_text("")
         child = os.fork()
         if child == 0:   # the child: never returns
             status = 3
@@ -358,11 +357,11 @@ class Workspace:
                 os.environ.update(self.environment)
                 sys.path[:0] = [str(self.directory), str(self.directory / "tests")]
                 import pytest
-                watch = _TestAlarm()
+                watch = _TestWatchdog(open(record, "w"))
                 for name in present:
                     status = int(pytest.main(["-x", "-q", "-p", "no:cacheprovider", "--rootdir", str(self.directory),
                                               name], plugins=[watch]))
-                    status = TIMED_OUT if watch.fired else 0 if status == NO_TESTS_COLLECTED else status
+                    status = 0 if status == NO_TESTS_COLLECTED else status
                     if status:
                         break
             finally:
@@ -372,7 +371,7 @@ class Workspace:
             done, status = os.waitpid(child, os.WNOHANG)
             if done:
                 code = os.waitstatus_to_exitcode(status)
-                return "passed" if code == 0 else "timeout" if code == TIMED_OUT else "failed"
+                return "passed" if code == 0 else "timeout" if record.stat().st_size else "failed"
             if time.monotonic() > deadline:
                 os.killpg(child, 9)
                 os.waitpid(child, 0)
