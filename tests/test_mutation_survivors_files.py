@@ -960,3 +960,31 @@ def test_a_kernel_denominator_over_the_documented_size_is_refused_naming_it():
     d = 10 ** 3333 + 1
     failure = rejection(with_edges([crafted_edge(5, [Fraction(1, d), 0, 1])]), "kernel denominator")
     assert failure.values["limit"] == most, str(failure)
+
+
+def zip_of(count: int) -> bytes:
+    """A plain zip archive of ``count`` stored one-byte members, as the standard library's zipfile writes it."""
+    import io
+    import zipfile
+
+    buffer = io.BytesIO()
+    with zipfile.ZipFile(buffer, "w", zipfile.ZIP_STORED) as archive:
+        for i in range(count):
+            archive.writestr(f"m{i:03d}", b"x")
+    return buffer.getvalue()
+
+
+def test_a_kit_archive_of_the_documented_member_count_is_laid_out_and_one_more_is_refused():
+    """Kills MAX_KIT_MEMBERS 100 -> 101: the README documents at most 100 members in a referee's kit; the
+    layout check reads an archive of 100 members that zipfile wrote (all 100 listed, as zipfile lists them)
+    and refuses one of 101 at its end record, before reading any entry."""
+    import zipfile
+    import io
+
+    from certify.verifier.kit import KitError, check_layout
+
+    most = documented("members of a referee's kit")
+    data = zip_of(most)
+    assert [name for name, _ in check_layout(data)] == zipfile.ZipFile(io.BytesIO(data)).namelist()
+    with pytest.raises(KitError, match=f"at most {most} members"):
+        check_layout(zip_of(most + 1))
