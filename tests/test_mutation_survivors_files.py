@@ -962,15 +962,16 @@ def test_a_kernel_denominator_over_the_documented_size_is_refused_naming_it():
     assert failure.values["limit"] == most, str(failure)
 
 
-def zip_of(count: int) -> bytes:
-    """A plain zip archive of ``count`` stored one-byte members, as the standard library's zipfile writes it."""
+def zip_of(count: int, size: int = 1) -> bytes:
+    """A plain zip archive of ``count`` members of ``size`` zero bytes each (deflated, so that large members
+    stay small on disk), as the standard library's zipfile writes it."""
     import io
     import zipfile
 
     buffer = io.BytesIO()
-    with zipfile.ZipFile(buffer, "w", zipfile.ZIP_STORED) as archive:
+    with zipfile.ZipFile(buffer, "w", zipfile.ZIP_DEFLATED) as archive:
         for i in range(count):
-            archive.writestr(f"m{i:03d}", b"x")
+            archive.writestr(f"m{i:03d}", bytes(size))
     return buffer.getvalue()
 
 
@@ -988,3 +989,25 @@ def test_a_kit_archive_of_the_documented_member_count_is_laid_out_and_one_more_i
     assert [name for name, _ in check_layout(data)] == zipfile.ZipFile(io.BytesIO(data)).namelist()
     with pytest.raises(KitError, match=f"at most {most} members"):
         check_layout(zip_of(most + 1))
+
+
+def test_an_empty_archive_of_22_bytes_is_laid_out_plainly():
+    """Kills ``len(data) < 22`` -> ``<=``: an archive with no member is its 22-byte end record alone (the zip
+    format's end of central directory record, as zipfile writes it), a plain layout with no members; the kit
+    is then refused for holding no bundle, not for its layout."""
+    from certify.verifier.kit import check_layout
+
+    data = zip_of(0)
+    assert len(data) == 22 and check_layout(data) == []
+
+
+def test_kit_members_of_the_documented_file_size_in_all_are_read_and_one_byte_more_is_not():
+    """Kills ``sum(member sizes) > MAX_FILE_BYTES`` -> ``>=``: the README documents 20,000,000 bytes for a file;
+    the members of a kit may come to that much together (two deflated members of 10,000,000 zero bytes), and
+    not one byte more."""
+    from certify.verifier.kit import KitError, check_layout
+
+    most = documented("file size")
+    assert [size for _, size in check_layout(zip_of(2, most // 2))] == [most // 2, most // 2]
+    with pytest.raises(KitError, match=f"more than {most} bytes"):
+        check_layout(zip_of(1, most + 1))
