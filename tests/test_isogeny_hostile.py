@@ -169,3 +169,26 @@ def test_unmutated_certificates_are_accepted():
         cert = copy.deepcopy(fresh(index))
         verify(cert)
         assert claim_matches_reference(cert)
+
+
+def test_a_wrong_change_on_an_edge_is_refused_showing_the_changed_codomain():
+    """An edge whose change of variables is [−1, 0, 0, 0] instead of the identity: by Silverman III.1,
+    Table 3.1, u = −1 takes a3 to −a3 and keeps a1 = 0, a2, a4, a6 of y² + y = x³ − x² − 7820x − 263580
+    (the 5-isogenous curve of y² + y = x³ − x² − 10x − 20, cypari2's ellisomat), so the rejection shows the
+    Vélu codomain, the model the change makes of it (a3 = −1) and the target, which differ."""
+    from fractions import Fraction
+
+    from certify.verifier.errors import Rejection
+
+    cert = certify_isogeny_class(tuple(Fraction(c) for c in (0, -1, 1, -10, -20)))
+    edge = next(e for e in cert["evidence"]["edges"] if e["change"] == ["1", "0", "0", "0"])
+    edge["change"] = ["-1", "0", "0", "0"]
+    try:
+        verify(cert)
+    except Rejection as rejection:
+        assert rejection.check == "edge target"
+        codomain, changed = rejection.values["codomain"], rejection.values["changed"]
+        assert changed == [codomain[0], codomain[1], -codomain[2], codomain[3], codomain[4]] != codomain
+        assert rejection.values["target"] != changed
+    else:
+        raise AssertionError("a wrong change of variables was accepted")

@@ -391,7 +391,8 @@ def check_edge(curves: list, edge: dict) -> None:
     check_isogeny_identity(source, codomain, ell, h, where)
     if change_model(codomain, edge["change"]) != curves[edge["target"]]:
         raise Rejection("edge target", f"{where}: the change of variables does not take the Vélu codomain to the "
-                        "target model", codomain=list(codomain), target=list(curves[edge["target"]]))
+                        "target model", codomain=list(codomain), changed=list(change_model(codomain, edge["change"])),
+                        target=list(curves[edge["target"]]))
 
 
 def check_isogeny_identity(source, codomain, ell: int, h: list, where: str) -> None:
