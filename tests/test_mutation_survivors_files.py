@@ -1011,3 +1011,27 @@ def test_kit_members_of_the_documented_file_size_in_all_are_read_and_one_byte_mo
     assert [size for _, size in check_layout(zip_of(2, most // 2))] == [most // 2, most // 2]
     with pytest.raises(KitError, match=f"more than {most} bytes"):
         check_layout(zip_of(1, most + 1))
+
+
+def test_a_reason_of_85_characters_wraps_within_100_columns():
+    """Kills WIDTH 100 -> 101: a report is laid out for a terminal of 100 columns, a 16-column label and its
+    text; a reason of 85 characters (80 letters, a space, 4 letters) no longer fits on the label's line and
+    is wrapped (as the standard library's textwrap does at 84), so no line is wider than 100."""
+    import textwrap
+
+    from certify.verifier.report import report
+
+    reason = "x" * 80 + " abcd"
+    lines = report({"file": "a.json", "accepted": False, "reason": reason}).splitlines()
+    assert max(len(line) for line in lines) <= 100
+    assert [line[16:] for line in lines[1:]] == textwrap.wrap(reason, 84) == ["x" * 80, "abcd"]
+
+
+def test_a_second_space_in_ascii_text_is_escaped():
+    """Kills ``"  " not in text`` -> ``in``: printable escapes every space that follows a space, so that a
+    name cannot pad itself until the rest of a line leaves the screen; ASCII text with two spaces together
+    does not take the shortcut for text with nothing to escape."""
+    from certify.verifier.report import printable
+
+    assert printable("a  b") == "a \\x20b"
+    assert printable("a b") == "a b"
