@@ -1035,3 +1035,44 @@ def test_a_second_space_in_ascii_text_is_escaped():
 
     assert printable("a  b") == "a \\x20b"
     assert printable("a b") == "a b"
+
+
+def test_only_the_first_curve_of_a_class_is_marked_as_e():
+    """Kills ``i == 0`` -> ``!=`` in claim_lines: the report marks the first listed curve, and only it, as the
+    input curve's model (y² + y = x³ − x² − 10x − 20 has a class of 3 curves, cypari2's ellisomat)."""
+    from certify.isogeny.certificate import certify_isogeny_class
+    from certify.verifier.report import claim_lines
+
+    lines = claim_lines(certify_isogeny_class(tuple(Fraction(c) for c in (0, -1, 1, -10, -20))))
+    marked = [line for line in lines if line.endswith("(≅ E)")]
+    assert len([line for line in lines if line.startswith("E")]) == 3
+    assert marked == [next(line for line in lines if line.startswith("E1: "))]
+
+
+@pytest.mark.parametrize("a", [(0, -1, 1, -10, -20), (1, 0, 1, 4, -6), (0, 1, 0, -1, 0)])
+def test_the_conductor_line_writes_n_as_its_prime_factorisation(a):
+    """Kills ``conductor_exponent != "1"`` -> ``==`` and ``factored != conductor`` -> ``==`` in
+    conductor_claim_lines: N is written ``N = 2^4 · 3`` as sympy's factorint factors it (exponent 1
+    written as the bare prime), and a prime N as ``N = 11`` alone (cypari2's ellglobalred gives N)."""
+    import sympy
+
+    from certify.conductor import certify_conductor
+    from certify.pari import pari
+    from certify.verifier.report import conductor_claim_lines
+
+    N = int(pari.ellglobalred(pari.ellinit(list(a)))[0])
+    text = " ".join(conductor_claim_lines(certify_conductor(tuple(Fraction(c) for c in a))["claim"]))
+    factors = sympy.factorint(N)
+    factored = " · ".join(f"{p}^{e}" if e > 1 else str(p) for p, e in sorted(factors.items()))
+    expected = f"N = {N}" + (f" = {factored}" if factored != str(N) else "") + " and minimal discriminant"
+    assert expected in text
+
+
+def test_a_rank_claim_without_an_upper_bound_is_a_lower_bound_alone():
+    """Kills ``upper is None`` -> ``is not None`` in rank_claim: with no proven upper bound the claim reads
+    'rank E(Q) ≥ 1' (a bound that is not proven is never printed as a value); with equal bounds, the rank."""
+    from certify.verifier.report import rank_claim
+
+    assert rank_claim({"rank_lower": "1", "rank_upper": None}) == "rank E(Q) ≥ 1"
+    assert rank_claim({"rank_lower": "1", "rank_upper": "1"}) == "E(Q) has rank 1"
+    assert rank_claim({"rank_lower": "0", "rank_upper": "2"}) == "0 ≤ rank E(Q) ≤ 2"
