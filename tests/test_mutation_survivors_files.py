@@ -1076,3 +1076,34 @@ def test_a_rank_claim_without_an_upper_bound_is_a_lower_bound_alone():
     assert rank_claim({"rank_lower": "1", "rank_upper": None}) == "rank E(Q) ≥ 1"
     assert rank_claim({"rank_lower": "1", "rank_upper": "1"}) == "E(Q) has rank 1"
     assert rank_claim({"rank_lower": "0", "rank_upper": "2"}) == "0 ≤ rank E(Q) ≤ 2"
+
+
+RANK_REPORTS = {
+    (0, 0, 0, -1, 0): "E(Q) has rank 0 (E(Q) is finite): the descent via 2-isogeny bounds the rank by 0.",
+    (0, 2, 0, -15, 0): "E(Q) has rank 1: the point P1 below has infinite order, and the descent via 2-isogeny bounds "
+                       "the rank by 1.",
+    (0, 5, 0, -12, 0): "E(Q) has rank 2: the points P1, P2 below are independent modulo torsion, and the descent via "
+                       "2-isogeny bounds the rank by 2.",
+}
+"""The first sentence of the report of a rank certificate, for curves whose rank cypari2's ellrank proves
+(y² = x³ − x is also Fermat's n = 1, not congruent: rank 0)."""
+
+
+@pytest.mark.parametrize("a", list(RANK_REPORTS))
+def test_a_rank_report_says_which_witness_gives_each_bound(a):
+    """Kills ``len(points) > 1`` -> ``>=``, ``descent_bound is None`` -> ``is not None``, ``upper is None`` ->
+    ``is not None`` and ``upper == "0"`` -> ``!=`` in rank_claim_lines: the report's first sentence names the
+    points (one point has infinite order, several are independent), the descent's bound, and a finite E(Q) at
+    rank 0; without an upper bound it says that none is proven."""
+    from certify.pari import pari
+    from certify.rank.certificate import certify_rank
+    from certify.verifier.report import rank_claim_lines
+
+    low, high, _ = (int(v) for v in pari.ellrank(pari.ellinit(list(a)))[:3])
+    cert = certify_rank(tuple(Fraction(c) for c in a))
+    assert cert["claim"]["rank_upper"] == str(low) == str(high)
+    assert " ".join(rank_claim_lines(cert)).startswith(RANK_REPORTS[a])
+    cert["claim"].update(rank_upper=None, selmer_dimensions=None)
+    cert["evidence"].update(descent=None, analytic=None)
+    assert " ".join(rank_claim_lines(cert)).startswith(f"rank E(Q) ≥ {low}: ")
+    assert "No upper bound is proven" in " ".join(rank_claim_lines(cert))
