@@ -1107,3 +1107,24 @@ def test_a_rank_report_says_which_witness_gives_each_bound(a):
     cert["evidence"].update(descent=None, analytic=None)
     assert " ".join(rank_claim_lines(cert)).startswith(f"rank E(Q) ≥ {low}: ")
     assert "No upper bound is proven" in " ".join(rank_claim_lines(cert))
+    assert "does not determine" not in " ".join(rank_claim_lines(cert))
+
+
+def test_a_rank_report_whose_bounds_do_not_meet_says_so_and_why():
+    """Kills the conditions of the sentence for bounds that do not meet in rank_claim_lines: the rank-1 curve
+    y² = x³ + 2x² − 15x (cypari2's ellrank) certified without its point proves 0 ≤ rank ≤ 1 by the descent,
+    whose failure to close the report names; with an analytic witness of order 1 as the upper bound, it names
+    the missing point instead; when the bounds meet neither sentence appears."""
+    from certify.rank.certificate import certify_rank
+    from certify.verifier.report import rank_claim_lines
+
+    cert = certify_rank(tuple(Fraction(c) for c in (0, 2, 0, -15, 0)))
+    assert "do not meet" not in " ".join(rank_claim_lines(cert)) and "did not close" not in " ".join(rank_claim_lines(cert))
+    cert["claim"].update(rank_lower="0", points=[])
+    text = " ".join(rank_claim_lines(cert))
+    assert text.startswith("0 ≤ rank E(Q) ≤ 1: the descent via 2-isogeny bounds the rank by 1.")
+    assert "The descent did not close, so this certificate does not determine the rank" in text
+    cert["evidence"]["analytic"] = {"order": "1"}
+    text = " ".join(rank_claim_lines(cert))
+    assert "The bounds do not meet, so this certificate does not determine the rank" in text
+    assert "did not close" not in text
