@@ -1128,3 +1128,32 @@ def test_a_rank_report_whose_bounds_do_not_meet_says_so_and_why():
     text = " ".join(rank_claim_lines(cert))
     assert "The bounds do not meet, so this certificate does not determine the rank" in text
     assert "did not close" not in text
+
+
+CHECK_WORDS = {
+    "torsion": ("1 generator on E with the claimed orders, generating 5 points;", "1 generator, 1 prime recounted"),
+    "isogeny-class": ("3 listed curves shown to be reduced minimal models, no two isomorphic;",
+                      "3 curves, 4 kernels rechecked, 36 witnesses"),
+    "rank": ("no points listed, so the lower bound is 0;", "0 independent points, 0 character primes, order of "
+             "vanishing proven"),
+    "conductor": ("1 bad primes classified, 1 primes proven, 0 Pocklington certificates checked.",
+                  "1 bad primes classified, 1 primes proven, 0 Pocklington certificates checked"),
+}
+"""What the report says the checks established, for y² + y = x³ − x² − 10x − 20: torsion Z/5Z (one
+generator, five points), a class of 3 curves with 4 edges of degree 5 (cypari2's ellisomat), 3 × 12
+completeness witnesses (Mazur 1978: 12 primes), rank 0 by L(E, 1) ≠ 0, conductor 11."""
+
+
+@pytest.mark.parametrize("kind", list(CHECK_WORDS))
+def test_the_checks_of_each_kind_are_put_in_that_kinds_words(kind):
+    """Kills the comparisons of check_sentences and counts that pick a certificate kind by its checks (such
+    as ``"witnesses" in checks`` -> ``not in``): each kind's checks are described in that kind's sentences."""
+    from certify.certificates import certifiers
+    from certify.conductor import certify_conductor
+    from certify.verifier.report import check_sentences, counts
+
+    build = {**certifiers(), "conductor": certify_conductor}[kind]
+    checks = verify(build(tuple(Fraction(c) for c in (0, -1, 1, -10, -20))))["checks"]
+    sentence, summary = CHECK_WORDS[kind]
+    assert check_sentences(checks)[0] == sentence
+    assert counts(checks).startswith(summary)
