@@ -1157,3 +1157,17 @@ def test_the_checks_of_each_kind_are_put_in_that_kinds_words(kind):
     sentence, summary = CHECK_WORDS[kind]
     assert check_sentences(checks)[0] == sentence
     assert counts(checks).startswith(summary)
+
+
+@pytest.mark.parametrize("a", list(RANK_REPORTS))
+def test_a_rank_certificate_with_a_descent_reports_the_descent_and_nothing_analytic(a):
+    """Kills ``EXCLUDED in checks`` -> ``not in`` and the like in rank_sentences and counts: the curves of
+    RANK_REPORTS have a rational point of order 2 and a descent that proves the rank, and no analytic
+    witness; the report describes the descent and its excluded cosets, and no analytic witness."""
+    from certify.rank.certificate import certify_rank
+    from certify.verifier.report import check_sentences, counts
+
+    checks = verify(certify_rank(tuple(Fraction(c) for c in a)))["checks"]
+    text = " ".join(check_sentences(checks))
+    assert "the descent via 2-isogeny rechecked" in text and "L(E, s)" not in text and "no upper bound" not in text
+    assert "excluded" in counts(checks) and "vanishing" not in counts(checks)
