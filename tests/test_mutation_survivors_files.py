@@ -1131,7 +1131,7 @@ def test_a_rank_report_whose_bounds_do_not_meet_says_so_and_why():
 
 
 CHECK_WORDS = {
-    "torsion": ("1 generator on E with the claimed orders, generating 5 points;", "1 generator, 1 prime recounted"),
+    "torsion": ("1 generator on E with the claimed orders, generating 5 points;", "1 generator, 1 prime recounted, 0 polynomials solved"),
     "isogeny-class": ("3 listed curves shown to be reduced minimal models, no two isomorphic;",
                       "3 curves, 4 kernels rechecked, 36 witnesses"),
     "rank": ("no points listed, so the lower bound is 0;", "0 independent points, 0 character primes, order of "
@@ -1147,7 +1147,8 @@ completeness witnesses (Mazur 1978: 12 primes), rank 0 by L(E, 1) ≠ 0, conduct
 @pytest.mark.parametrize("kind", list(CHECK_WORDS))
 def test_the_checks_of_each_kind_are_put_in_that_kinds_words(kind):
     """Kills the comparisons of check_sentences and counts that pick a certificate kind by its checks (such
-    as ``"witnesses" in checks`` -> ``not in``): each kind's checks are described in that kind's sentences."""
+    as ``"witnesses" in checks`` -> ``not in``), and those of the rank summary's suffixes: each kind's checks
+    are described in that kind's sentences and summed up in its words, and nothing more."""
     from certify.certificates import certifiers
     from certify.conductor import certify_conductor
     from certify.verifier.report import check_sentences, counts
@@ -1155,8 +1156,8 @@ def test_the_checks_of_each_kind_are_put_in_that_kinds_words(kind):
     build = {**certifiers(), "conductor": certify_conductor}[kind]
     checks = verify(build(tuple(Fraction(c) for c in (0, -1, 1, -10, -20))))["checks"]
     sentence, summary = CHECK_WORDS[kind]
-    assert check_sentences(checks)[0] == sentence
-    assert counts(checks).startswith(summary)
+    assert check_sentences(checks)[0] == sentence and "no upper bound" not in " ".join(check_sentences(checks))
+    assert counts(checks) == summary
 
 
 @pytest.mark.parametrize("a", list(RANK_REPORTS))
@@ -1170,4 +1171,13 @@ def test_a_rank_certificate_with_a_descent_reports_the_descent_and_nothing_analy
     checks = verify(certify_rank(tuple(Fraction(c) for c in a)))["checks"]
     text = " ".join(check_sentences(checks))
     assert "the descent via 2-isogeny rechecked" in text and "L(E, s)" not in text and "no upper bound" not in text
-    assert "excluded" in counts(checks) and "vanishing" not in counts(checks)
+    assert "excluded" in counts(checks) and "vanishing" not in counts(checks) and "no upper" not in counts(checks)
+
+
+def test_a_cell_of_the_bundle_table_fits_its_width_exactly_and_one_more_is_cut():
+    """Kills ``len(text) <= width`` -> ``<`` in cut: a bundle table cell of exactly its width is shown whole,
+    one character longer is cut to the width with an ellipsis."""
+    from certify.verifier.report import cut
+
+    assert cut("x" * 16, 16) == "x" * 16
+    assert cut("x" * 17, 16) == "x" * 15 + "…"
