@@ -50,6 +50,22 @@ SURVIVOR_TESTS = ("tests/test_mutation_survivors.py", "tests/test_mutation_survi
 """The tests written to kill the mutants that survived a first run, one file per group of modules; they
 run (those that exist) for a mutant the module's tests do not kill."""
 
+SURVIVOR_GROUP = {"tests/test_mutation_survivors_core.py": ("arith.py", "curves.py", "torsion.py"),
+                  "tests/test_mutation_survivors_isogeny.py": ("isogeny.py",),
+                  "tests/test_mutation_survivors_rank.py": ("rank.py", "descent.py"),
+                  "tests/test_mutation_survivors_analytic.py": ("lseries.py", "intervals.py"),
+                  "tests/test_mutation_survivors_conductor.py": ("tate.py", "conductor.py", "primality.py", "models.py")}
+"""The survivor-test file of each group of mathematical modules; for the other modules it is
+test_mutation_survivors_files.py. A mutant's own group's file runs first among SURVIVOR_TESTS, so that a
+mutant those tests kill stops there."""
+
+
+def survivor_tests(module: str) -> tuple:
+    """SURVIVOR_TESTS with the file of the module's group first."""
+    own = next((name for name, modules in SURVIVOR_GROUP.items() if module in modules),
+               "tests/test_mutation_survivors_files.py")
+    return (own,) + tuple(name for name in SURVIVOR_TESTS if name != own)
+
 PRELOADED = ("pytest", "hypothesis", "sympy", "cypari2", "jsonschema")
 """Imported once by a forking runner, before it forks a child per mutant: none of them imports certify."""
 
@@ -388,7 +404,8 @@ class Workspace:
             path.write_text(mutant.apply(original))
             result = self.run(TESTS[mutant.module], timeout)
             if result == "passed" and any((self.directory / name).exists() for name in SURVIVOR_TESTS):
-                result = {"failed": "new", "timeout": "timeout"}.get(self.run(SURVIVOR_TESTS, timeout), "passed")
+                result = {"failed": "new", "timeout": "timeout"}.get(self.run(survivor_tests(mutant.module), timeout),
+                                                                     "passed")
         finally:
             path.write_text(original)
         return {"passed": "survived", "failed": "killed", "timeout": "timeout", "new": "killed by new test"}[result]
