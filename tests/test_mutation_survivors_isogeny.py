@@ -462,3 +462,128 @@ def test_a_reduced_model_that_scales_down_at_three_only_with_s_one_is_refused_as
     with pytest.raises(Rejection) as caught:
         check_reduced_minimal(model, {}, "curve 0")
     assert caught.value.check == "minimal model" and caught.value.values["p"] == 3
+
+
+# --- the guards of the x0-roots and division-roots methods, and the class graph ---
+
+def first_curves(cert: dict, size: int) -> dict:
+    """The certificate cut down to its first ``size`` listed curves: their edges among themselves, their
+    minimality hints and witnesses, and the matching corner of the degree matrix."""
+    kept = {str(i) for i in range(size)}
+    claim, evidence = cert["claim"], cert["evidence"]
+    claim["curves"] = claim["curves"][:size]
+    claim["degrees"] = [row[:size] for row in claim["degrees"][:size]]
+    evidence["minimality"] = evidence["minimality"][:size]
+    evidence["edges"] = [e for e in evidence["edges"] if e["source"] in kept and e["target"] in kept]
+    evidence["completeness"] = [w for w in evidence["completeness"] if w["curve"] in kept]
+    return cert
+
+
+def rational_roots_reference(polynomial) -> list:
+    """The rational roots of an integer polynomial (a sympy Poly), by sympy's factorisation over Q."""
+    return sorted(-f.nth(0) / f.nth(1) for f, _ in polynomial.factor_list()[1] if f.degree() == 1)
+
+
+def x0_witness(j: Fraction, ell: int) -> dict:
+    """An x0-roots witness for ℓ at j, its roots those of P_ℓ(t) − j·t by sympy (P_ℓ: j = P_ℓ(t)/t, Maier 2009,
+    Table 3 — the Hauptmoduln written out here, not taken from the verifier), its prime the least odd prime
+    not dividing the leading coefficient at which the squarefree part stays squarefree."""
+    import sympy
+
+    t = sympy.symbols("t")
+    hauptmodul = {2: (t + 16) ** 3, 3: (t + 27) * (t + 3) ** 3, 5: (t ** 2 + 10 * t + 5) ** 3,
+                  7: (t ** 2 + 13 * t + 49) * (t ** 2 + 5 * t + 1) ** 3}[ell]
+    f = sympy.Poly(j.denominator * hauptmodul - j.numerator * t, t)
+    core = sympy.Poly(sympy.quo(f, sympy.gcd(f, f.diff(t))), t)
+    p = next(q for q in sympy.primerange(3, 1000)
+             if f.LC() % q and sympy.Poly(core.as_expr(), t, modulus=q).discriminant() != 0)
+    return {"method": "x0-roots", "prime": str(p), "roots": [str(r) for r in rational_roots_reference(f)]}
+
+
+def with_witness(cert: dict, curve: int, ell: int, replacement: dict) -> dict:
+    witness(cert, curve, ell).update(replacement)
+    for key in set(witness(cert, curve, ell)) - set(replacement) - {"curve", "degree"}:
+        del witness(cert, curve, ell)[key]
+    return cert
+
+
+CONGRUENT_ONE = (0, 0, 0, -1, 0)
+"""y² = x³ − x, j = 1728: ellisomat gives four curves, y² = x³ − x joined by 2-isogenies to the three
+others, one through each of its rational 2-torsion points (0, 0), (1, 0), (−1, 0)."""
+
+
+def test_an_x0_witness_at_j_1728_is_refused_so_a_class_missing_a_curve_is_refused():
+    """Kills ``j in (0, 1728)`` -> False, its 1728 -> 1729, and the deleted raise of x0_roots_bound: at
+    j = 1728 the curves y² = x³ + ax have one or three rational 2-isogenies as −a is a square or not, while
+    P_2(t) − 1728t = (t − 8)²(t + 64) has two rational roots whatever the twist, so the count from j is wrong
+    there. The class of y² = x³ − x without its last curve, with the 2-witness of y² = x³ − x replaced by
+    the roots 8 and −64, lists two 2-isogenies for that curve, as many as the roots: the mutants accept
+    it, though ellisomat gives four curves."""
+    cert = first_curves(certificate(CONGRUENT_ONE), 3)
+    with_witness(cert, 0, 2, x0_witness(Fraction(1728), 2))
+    assert witness(cert, 0, 2)["roots"] == ["-64", "8"]
+    assert not claim_matches_reference(cert)
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("x0 witness", {"j": Fraction(1728), "ell": 2})
+
+
+def curve_with_j(j: Fraction) -> tuple:
+    """y² + xy = x³ − 36x/(j − 1728) − 1/(j − 1728), of j-invariant j (Silverman III.1.4(c))."""
+    return (1, 0, 0, -36 / (j - 1728), -1 / (j - 1728))
+
+
+@pytest.mark.parametrize("j", [Fraction(1), Fraction(1729)])
+def test_x0_witnesses_next_to_the_excluded_j_are_accepted(j):
+    """Kills the constants of ``j in (0, 1728)`` moved to 1 and 1729: the x0 method is valid at every j but 0
+    and 1728 (there X_0(ℓ) → X(1) ramifies and the count depends on the twist), so the certificate of the
+    curve of j = 1 (of j = 1729), its witnesses for ℓ = 2, 3, 5, 7 of every listed curve with the same j
+    (j by cypari2's ellinit) replaced by x0-roots witnesses whose roots sympy computes, is accepted, and ellisomat agrees."""
+    from certify.pari import pari
+
+    cert = certificate(tuple(Fraction(c) for c in curve_with_j(j)))
+    replaced = 0
+    for i, model in enumerate(cert["claim"]["curves"]):
+        if Fraction(str(pari.ellinit([int(c) for c in model]).j())) == j:
+            for ell in (2, 3, 5, 7):
+                with_witness(cert, i, ell, x0_witness(j, ell))
+                replaced += 1
+    assert replaced >= 4
+    assert accepted_and_true(cert)
+
+
+def test_an_x0_witness_for_eleven_is_refused_by_its_method():
+    """Kills ``ell not in X0_NUMERATORS`` -> False: the x0 method needs the genus-0 levels 2, 3, 5, 7, 13
+    (X_0(11) has genus 1 and no Hauptmodul), so an x0-roots witness for ℓ = 11 is refused by its own check,
+    not by a missing table entry."""
+    cert = with_witness(certificate(THIRTEEN), 0, 11, {"method": "x0-roots", "prime": "5", "roots": []})
+    failure = rejection(cert)
+    assert failure.check == "x0 witness" and failure.values["ell"] == 11
+
+
+def test_a_division_witness_for_five_is_refused_so_a_class_missing_its_five_isogenies_is_refused():
+    """Kills the deleted raise of ``ell not in (2, 3)`` in division_roots_bound: on y² + y = x³ − x² − 10x − 20
+    (conductor 11 in Cremona's table; ellisomat: three curves joined by 5-isogenies) ψ_3 has no rational
+    root (no rational 3-isogeny), so the curve alone, its 5-witness replaced by the roots of ψ_3, would be
+    accepted by the mutant with no 5-isogeny at all; the division method is for ℓ = 2 or 3 only."""
+    cert = first_curves(certificate((0, -1, 1, -10, -20)), 1)
+    with_witness(cert, 0, 5, {"method": "division-roots", "prime": "7", "roots": []})
+    assert not claim_matches_reference(cert)
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("division witness", {"ell": 5})
+
+
+def test_two_classes_listed_as_one_are_refused_as_not_connected():
+    """Kills the deleted raise of check_connected: the class of y² + y = x³ − x² − 10x − 20 (three curves)
+    and the curve y² + y = x³ − x (conductor 37 in Cremona's table; ellisomat: alone in its class) listed as
+    one class, each with its own complete evidence: every witness passes, but no edge reaches the fourth
+    curve. (The degree matrix would refuse it next, having no finite degree for that pair.)"""
+    cert = certificate((0, -1, 1, -10, -20))
+    other = certificate((0, 0, 1, -1, 0))
+    size = len(cert["claim"]["curves"])
+    cert["claim"]["curves"] += other["claim"]["curves"]
+    cert["claim"]["degrees"] = [row + ["1"] for row in cert["claim"]["degrees"]] + [["1"] * (size + 1)]
+    cert["evidence"]["minimality"] += other["evidence"]["minimality"]
+    cert["evidence"]["completeness"] += [dict(w, curve=str(size)) for w in other["evidence"]["completeness"]]
+    assert not claim_matches_reference(cert)
+    failure = rejection(cert)
+    assert (failure.check, failure.values) == ("connected class", {"unreached": [size]})

@@ -633,3 +633,21 @@ def test_a_disc_of_three_numbers_is_refused_without_a_crash():
     exclusion = exclusion_at_two(cert)
     exclusion["t_discs"][0] = exclusion["t_discs"][0] + ["0"]
     assert rejection(cert).check == "structure"
+
+
+def test_an_upper_bound_without_a_witness_is_refused():
+    """Kills the deleted raise of ``upper is not None`` when no witness bounds the rank: y² = x³ − 25x has
+    rank 1 (cypari2 ellrank; Cremona's tables), and its certificate reduced to its point and independence
+    evidence, with no descent and no analytic witness, is accepted with rank_upper null; stating
+    rank_upper = 0 there is a false claim, refused because no witness proves any upper bound."""
+    cert, rank_of_curve = pool_certificate(CONGRUENT_FIVE)
+    assert ellrank_bounds(cert["curve"]) == (1, 1) == (rank_of_curve, rank_of_curve)
+    independence = cert["evidence"]["independence"]
+    points = [tuple(Fraction(v) for v in P) for P in cert["claim"]["points"]]
+    cert = points_only(cert, points, int(independence["ell"]), int(independence["torsion_prime"]),
+                       [int(q) for q in independence["character_primes"]])
+    verify(copy.deepcopy(cert))
+    cert["claim"]["rank_upper"] = "0"
+    failure = rejection(cert)
+    assert (failure.check, failure.message) == ("upper bound", "rank_upper must be null when no witness bounds "
+                                                               "the rank")
