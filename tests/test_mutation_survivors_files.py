@@ -1181,3 +1181,22 @@ def test_a_cell_of_the_bundle_table_fits_its_width_exactly_and_one_more_is_cut()
 
     assert cut("x" * 16, 16) == "x" * 16
     assert cut("x" * 17, 16) == "x" * 15 + "…"
+
+
+# --- errors.py: values in rejection messages ---
+
+def test_rejection_values_are_abbreviated_beyond_300_bits_and_cut_beyond_200_characters():
+    """Kills ``value.bit_length() > 300`` -> ``>=``, the same for a rational's numerator and denominator, and
+    ``len(text) <= 200`` -> ``<`` in errors.show: its documented rule shows a number of exactly 300 bits
+    whole and abbreviates one of 301 bits to its size (an integer, and a rational by the larger of its two
+    parts), and shows a value whose text has exactly 200 characters whole, cutting one of 201."""
+    def shown(value) -> str:
+        return str(Rejection("check", "message", value=value)).removeprefix("check: message (value=")[:-1]
+
+    at, over = 2 ** 299 + 1, 2 ** 300 + 1
+    assert (at.bit_length(), over.bit_length()) == (300, 301)
+    assert shown(at) == str(at) and shown(over) == "<301-bit integer>"
+    assert shown(Fraction(at, 5)) == f"{at}/5" and shown(Fraction(over, 5)) == "<rational of 301 bits>"
+    assert shown(Fraction(5, at)) == f"5/{at}" and shown(Fraction(5, over)) == "<rational of 301 bits>"
+    assert shown("a" * 198) == repr("a" * 198) and len(shown("a" * 198)) == 200
+    assert shown("a" * 199) == repr("a" * 199)[:200] + "…"
