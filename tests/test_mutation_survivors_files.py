@@ -1200,3 +1200,48 @@ def test_rejection_values_are_abbreviated_beyond_300_bits_and_cut_beyond_200_cha
     assert shown(Fraction(5, at)) == f"5/{at}" and shown(Fraction(5, over)) == "<rational of 301 bits>"
     assert shown("a" * 198) == repr("a" * 198) and len(shown("a" * 198)) == 200
     assert shown("a" * 199) == repr("a" * 199)[:200] + "…"
+
+
+# --- cli.py: the --jsonl lines ---
+
+def test_a_rejected_certificate_has_its_digest_in_the_jsonl_line(tmp_path):
+    """Kills ``result["digest"] is None`` -> ``is not None`` in cli.check: the README documents a digest in
+    every --jsonl object, and a certificate refused by its checks (here the honest one claiming Z/2 × Z/4,
+    which cypari2's elltors denies in tests/test_soundness_false_claims.py) still has its digest, the
+    SHA-256 of its canonical content, so a table can cite the file it refused."""
+    from certify.verifier.digest import digest
+
+    cert = honest()
+    cert["claim"]["invariants"] = ["2", "4"]
+    verdict = command_line(tmp_path, {"false": cert})["false"]
+    assert verdict["accepted"] is False and verdict["digest"] == digest(cert)
+
+
+def bundle_lines(tmp_path, members: list) -> list:
+    """The --jsonl objects of the bare verifier on a bundle of the given certificates, the manifest recording
+    each one's own digest and claim (so that only the checks can refuse a member)."""
+    from certify.bundle import build_bundle
+    from certify.verifier.digest import digest
+    from certify.verifier.report import describe_claim
+
+    bundle = build_bundle([(f"c{i}.json", cert, {"digest": digest(cert), "reason": describe_claim(cert)})
+                           for i, cert in enumerate(members)])
+    tmp_path.mkdir()
+    path = tmp_path / "bundle.json"
+    path.write_text(json.dumps(bundle))
+    return [json.loads(line) for line in run("bare verifier", "--jsonl", str(path)).stdout.decode().splitlines()]
+
+
+def test_a_bundle_is_accepted_in_jsonl_exactly_when_every_member_is(tmp_path):
+    """Kills ``accepted == len(results)`` -> ``!=`` in bundle_verdict and ``n == 1`` -> ``!=`` in plural: the
+    bundle's --jsonl object says accepted when every member is (one honest member), not accepted when one is
+    refused (beside it, the honest certificate claiming Z/2 × Z/4, which cypari2's elltors denies), with
+    'certificate' singular for one member and plural for two."""
+    one = bundle_lines(tmp_path / "one", [honest()])
+    assert [(line["accepted"], line["reason"]) for line in one[1:]] == [(True, "bundle of 1 certificate: 1 accepted")]
+    assert one[-1]["members"] == 1
+    false = honest()
+    false["claim"]["invariants"] = ["2", "4"]
+    two = bundle_lines(tmp_path / "two", [honest(), false])
+    assert [line["accepted"] for line in two] == [True, False, False]
+    assert (two[-1]["reason"], two[-1]["members"]) == ("bundle of 2 certificates: 1 accepted", 2)
