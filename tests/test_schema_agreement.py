@@ -4,7 +4,12 @@ library jsonschema (draft 2020-12, tests/schema_reference.py) finds in violation
 schemas/ — checked on every document of the hostile-test pools and on structural damage to them: each
 string replaced by a value of another type or a non-canonical spelling, each key deleted, an unknown key
 added to each object, each list emptied or doubled. The long run (-m table) takes every damage of every
-pool certificate."""
+pool certificate.
+
+Beyond these documents the two differ in one known way, where ours is the stricter: a pattern's final $
+matches only at the end of the string, as ECMA-262 (which JSON Schema's patterns follow) defines it, while
+jsonschema's Python regular expressions let it match before a final newline, so "1\n" as a coefficient
+is refused by ours and passes jsonschema (``test_a_final_newline_is_refused_by_our_schema_step_only``)."""
 from __future__ import annotations
 
 import copy
@@ -109,3 +114,11 @@ def test_damaged_certificates_all():
             assert_agree(make())
             count += 1
     print(f"{count} damaged documents: the two schema steps agree on each")
+
+
+def test_a_final_newline_is_refused_by_our_schema_step_only():
+    """ECMA-262 (its regular-expression assertions; recalled from memory): without the multiline flag $ asserts the end of the input, so '^(0|…)$'
+    does not match "1\n"; Python's re (which jsonschema uses) matches $ before a final newline too."""
+    cert = fresh("torsion", 0)
+    cert["curve"][0] += "\n"
+    assert reference(cert) == [] and len(ours(cert)) == 1 and ours(cert)[0].startswith("/curve/0: ")
