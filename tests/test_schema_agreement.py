@@ -118,7 +118,7 @@ def test_damaged_certificates_all():
 
 def test_a_final_newline_is_refused_by_our_schema_step_only():
     """ECMA-262 (its regular-expression assertions; recalled from memory): without the multiline flag $
-    asserts the end of the input, so '^(0|…)$' does not match "1\n"; Python's re (which jsonschema uses)
+    asserts the end of the input, so '^(0|…)$' does not match "1\\n"; Python's re (which jsonschema uses)
     matches $ before a final newline too."""
     cert = fresh("torsion", 0)
     cert["curve"][0] += "\n"
