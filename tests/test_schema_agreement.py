@@ -8,7 +8,7 @@ pool certificate.
 
 Beyond these documents the two differ in one known way, where ours is the stricter: a pattern's final $
 matches only at the end of the string, as ECMA-262 (which JSON Schema's patterns follow) defines it, while
-jsonschema's Python regular expressions let it match before a final newline, so "1\n" as a coefficient
+jsonschema's Python regular expressions let it match before a final newline, so "1\\n" as a coefficient
 is refused by ours and passes jsonschema (``test_a_final_newline_is_refused_by_our_schema_step_only``)."""
 from __future__ import annotations
 
