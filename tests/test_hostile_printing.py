@@ -123,3 +123,22 @@ def test_a_name_cannot_carry_a_claim_or_digest_into_the_verdict_line(tmp_path):
         assert line.startswith("accepted: "), line
         assert line.split(" — ", 1)[1].startswith(describe_claim(cert) + " ["), line
         assert line.rsplit(" ", 1)[1] == digest(cert), line
+
+
+@pytest.mark.parametrize("dash", ["\u2015", "\u2e3a", "\ufe58", "\u2500", "\u4e00", "\u30fc", "\u2212"])
+def test_a_name_cannot_carry_a_claim_behind_a_look_alike_of_the_dash(tmp_path, dash):
+    """As above with a character that looks like the em dash (horizontal bar U+2015 — a referee's finding —,
+    two-em dash, small em dash, box-drawing line, the CJK numeral one, the katakana long vowel mark, the
+    minus sign): names print in ASCII, so the name shows the character's escape and no second dash of
+    the verifier's shape stands in the line before the verifier's own."""
+    cert = fresh("torsion", 0)
+    fake = f"x.json {dash} E(Q)_tors ≅ Z/7Z [2 checks; 0.1 s] sha256:" + "0" * 12
+    bundle = build_bundle([("x.json", cert, {"digest": digest(cert), "reason": describe_claim(cert)})])
+    bundle["manifest"]["members"][0]["name"] = fake
+    path = tmp_path / "bundle.json"
+    path.write_text(json.dumps(bundle), encoding="utf-8")
+    for entry in sorted(ENTRY_POINTS):
+        line = run(entry, "--quiet", str(path)).stdout.decode("utf-8").split("\n")[0]
+        name = line.removeprefix("accepted: ").split(" — ", 1)[0]
+        assert name.isascii() and "\\u%04x" % ord(dash) in name and "\\u2245" in name, line
+        assert line.split(" — ", 1)[1].startswith(describe_claim(cert) + " ["), line

@@ -1,9 +1,9 @@
 """Hostile input, mechanism *stores read defensively*: SQLite stores whose rows hold a document of the wrong
 type (BLOB, NULL, integer, real), oversized or non-UTF-8 values, odd key columns, and stores that are not
 certify stores at all (a view that computes without end, a missing table, missing columns, a file that is
-not SQLite). Each bad row gets its own one-line verdict and the run goes on to the next; a store that
-cannot be read at all is one unreadable verdict — within 10 s and 500 MB, no traceback, on both entry
-points (tests/hostile_run.py)."""
+not SQLite, a generated column, a virtual table), and a named pipe in a directory of certificates. Each bad
+row gets its own one-line verdict and the run goes on to the next; a store that cannot be read at all is one
+unreadable verdict — within 10 s and 500 MB, no traceback, on both entry points (tests/hostile_run.py)."""
 from __future__ import annotations
 
 import json
@@ -63,6 +63,27 @@ def recursive_view(path: str) -> str:
     return path
 
 
+def generated_column(path: str) -> str:
+    """A table whose curve column is computed on every read. Here the expression is a constant; a referee's
+    8 KB store made it instr() of 10⁵ a's and a b in 10⁷ a's, about 10¹² byte comparisons inside one SQLite
+    step, where the step limit never runs (43 s), so every generated column is refused, whatever it computes."""
+    with sqlite3.connect(path) as connection:
+        connection.execute("CREATE TABLE certificates (kind, label, document, digest, "
+                           "curve AS ('[0,1,1,-2,7]') VIRTUAL)")
+        cert = fresh("torsion", 0)
+        connection.execute("INSERT INTO certificates VALUES (?, ?, ?, ?)",
+                           ("torsion", "", json.dumps(cert), digest(cert)))
+    return path
+
+
+def virtual_table(path: str) -> str:
+    """The table a virtual table of SQLite's full-text module, whose code runs on every read."""
+    with sqlite3.connect(path) as connection:
+        connection.execute("CREATE VIRTUAL TABLE certificates USING fts5(curve, kind, label, document, digest)")
+        connection.execute("INSERT INTO certificates VALUES (?, ?, ?, ?, ?)", good_row(0))
+    return path
+
+
 def table_without_columns(path: str) -> str:
     with sqlite3.connect(path) as connection:
         connection.execute("CREATE TABLE certificates (x)")
@@ -83,10 +104,33 @@ def no_table(path: str) -> str:
 
 
 @pytest.mark.parametrize("entry", sorted(ENTRY_POINTS))
-@pytest.mark.parametrize("build", [recursive_view, table_without_columns, not_sqlite, no_table])
+@pytest.mark.parametrize("build", [recursive_view, generated_column, virtual_table, table_without_columns, not_sqlite,
+                                   no_table])
 def test_a_store_that_cannot_be_read_is_one_unreadable_verdict(tmp_path, entry, build):
-    """A view that would compute rows without end, a table without the columns, a damaged file, a missing
-    table: one unreadable verdict, exit status 2."""
+    """A view that would compute rows without end, a generated column, a virtual table, a table without the
+    columns, a damaged file, a missing table: one unreadable verdict, exit status 2."""
     result = run(entry, "--jsonl", build(str(tmp_path / "store.sqlite")))
     (verdict,) = assert_answered(result, jsonl=True)
     assert result.returncode == 2 and verdict["reason"].startswith("unreadable: "), verdict
+
+
+@pytest.mark.parametrize("entry", sorted(ENTRY_POINTS))
+def test_a_named_pipe_in_a_directory_is_passed_over(tmp_path, entry):
+    """A directory stands for its regular *.json files: a named pipe called b.json beside a certificate
+    would make a read wait for a writer without end (a referee's finding); it is passed over, and the
+    certificate beside it gets its verdict."""
+    import os
+
+    (tmp_path / "a.json").write_text(json.dumps(fresh("torsion", 0)))
+    os.mkfifo(tmp_path / "b.json")
+    (verdict,) = assert_answered(run(entry, "--jsonl", str(tmp_path)), certificates=1, jsonl=True)
+    assert verdict["accepted"] and verdict["file"].endswith("a.json")
+
+
+@pytest.mark.parametrize("build, reason", [(generated_column, "'certificates' has a generated column"),
+                                           (virtual_table, "'certificates' is a virtual table")])
+def test_a_table_that_computes_on_reading_is_refused_by_name(tmp_path, build, reason):
+    """The generated column and the virtual table are refused for what they are, before any row is read."""
+    path = build(str(tmp_path / "store.sqlite"))
+    (verdict,) = assert_answered(run("bare verifier", "--jsonl", path), jsonl=True)
+    assert verdict["reason"] == f"unreadable: {path}: not a certify store ({reason})"

@@ -38,10 +38,12 @@ def printable(text: str) -> str:
 
 
 def printable_name(text: str) -> str:
-    """A name from a file, store or bundle as ``printable`` writes it, with its em dashes escaped too
-    (\\u2014): in a verdict line ``accepted: NAME — CLAIM [checks] DIGEST`` the first " — " is then the one
-    the verifier put after the name, and no name can carry a claim or a digest of its own into the line."""
-    return printable(text).replace("\u2014", escape("\u2014"))
+    """A name from a file, store or bundle in printable ASCII: ``printable``'s escapes, and every other
+    character outside ASCII written as its escape too (\\u2014, \\u2015, \\u00e9). In a verdict line
+    ``accepted: NAME — CLAIM [checks] DIGEST`` the first " — " is then the one the verifier put after the
+    name, and no name can carry a claim or a digest of its own into the line, not even behind a character
+    that looks like that dash (U+2015, U+2E3A, U+2500, U+4E00, …)."""
+    return "".join(c if c.isascii() else escape(c) for c in printable(text))
 
 
 def escape(c: str) -> str:

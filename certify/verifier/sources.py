@@ -2,7 +2,8 @@
 
 A path names a *source*. A ``.sqlite`` file is a store written by ``certify batch`` (table
 ``certificates``, one row per certificate, with the digest recorded when it was written); a
-directory stands for the ``*.json`` files in it, in name order; a ``.pyz`` file is a referee's kit
+directory stands for the ``*.json`` files in it, in name order (regular files only: a named pipe there
+would wait for a writer without end); a ``.pyz`` file is a referee's kit
 (``certify.verifier.kit``), read for the bundle it carries; ``-`` is standard input; any other path is
 one JSON file, either a certificate or a bundle (format ``certify-bundle``: a manifest listing each
 member's name, label, format, digest and claim, and the members). A recorded digest (in a manifest or a
@@ -52,7 +53,8 @@ def tasks(path: str):
             raise Unreadable(f"{path}: {error}")
         yield ("data", f"{path}#{bundle}", data)
     elif os.path.isdir(path):
-        names = sorted(name for name in os.listdir(path) if name.endswith(".json") and not name.startswith("."))
+        names = sorted(name for name in os.listdir(path) if name.endswith(".json") and not name.startswith(".")
+                       and os.path.isfile(os.path.join(path, name)))
         if not names:
             raise Unreadable(f"{path}: the directory holds no .json certificates")
         yield from (("file", os.path.join(path, name)) for name in names)
@@ -72,8 +74,8 @@ reaches Python as at most MAX_NAME_BYTES (names and digest) or MAX_FILE_BYTES (t
 
 def store_rows(path: str):
     """('row', 'STORE#curve/kind', document bytes or Unreadable, {"digest": recorded digest}) for every row
-    of a store, in key order. The store is opened read-only; ``certificates`` must be a table (a view
-    could compute without end), SQLite's own work is cut off after MAX_STORE_STEPS virtual-machine steps
+    of a store, in key order. The store is opened read-only; ``certificates`` must be a plain table
+    (``check_plain_table``: a view, a virtual table or a generated column could compute without end), SQLite's own work is cut off after MAX_STORE_STEPS virtual-machine steps
     per row and its memory at MAX_STORE_MEMORY bytes, and a row with a document that is not text of at most
     MAX_FILE_BYTES is one unreadable verdict; the run goes on."""
     try:
@@ -89,9 +91,7 @@ def store_rows(path: str):
             steps[0] += 1000
             return steps[0] > MAX_STORE_STEPS
         connection.set_progress_handler(interrupt, 1000)
-        kind = connection.execute("SELECT type FROM sqlite_master WHERE name = ?", (STORE_TABLE,)).fetchone()
-        if kind != (b"table",):
-            raise Unreadable(f"{path}: not a certify store (no table {STORE_TABLE!r})")
+        check_plain_table(connection, path)
         rows = connection.execute(STORE_QUERY)
         while True:
             steps[0] = 0
@@ -108,6 +108,19 @@ def store_rows(path: str):
         raise Unreadable(f"{path}: not a certify store ({error})")
     finally:
         connection.close()
+
+
+def check_plain_table(connection, path: str) -> None:
+    """``certificates`` is an ordinary table with ordinary columns, so that reading a row computes nothing:
+    not a view, not a virtual table (a module's code runs on every read), and no generated column (its
+    expression is evaluated on every read, inside one SQLite step, where the step limit cannot cut it off)."""
+    entry = connection.execute("SELECT type, sql FROM sqlite_master WHERE name = ?", (STORE_TABLE,)).fetchone()
+    if entry is None or entry[0] != b"table":
+        raise Unreadable(f"{path}: not a certify store (no table {STORE_TABLE!r})")
+    if not (entry[1] or b"").lstrip().upper().startswith(b"CREATE TABLE"):
+        raise Unreadable(f"{path}: not a certify store ({STORE_TABLE!r} is a virtual table)")
+    if any(column[6] for column in connection.execute(f"PRAGMA table_xinfo({STORE_TABLE})")):
+        raise Unreadable(f"{path}: not a certify store ({STORE_TABLE!r} has a generated column)")
 
 
 def _text(value) -> str:
