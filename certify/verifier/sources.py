@@ -2,12 +2,12 @@
 
 A path names a *source*. A ``.sqlite`` file is a store written by ``certify batch`` (table
 ``certificates``, one row per certificate, with the digest recorded when it was written); a
-directory stands for the ``*.json`` files in it, in name order (regular files only: a named pipe there
-would wait for a writer without end); a ``.pyz`` file is a referee's kit
-(``certify.verifier.kit``), read for the bundle it carries; ``-`` is standard input; any other path is
-one JSON file, either a certificate or a bundle (format ``certify-bundle``: a manifest listing each
-member's name, label, format, digest and claim, and the members). A recorded digest (in a manifest or a
-store) must equal the digest of the certificate it names, or that certificate is rejected.
+directory stands for the regular ``*.json`` files in it, in name order (a named pipe there would wait for
+a writer without end); a ``.pyz`` file is a referee's kit (``certify.verifier.kit``), read for the bundle
+it carries; ``-`` is standard input; any other path is one JSON file, either a certificate or a bundle
+(format ``certify-bundle``: a manifest listing each member's name, label, format, digest and claim, and
+the members). A recorded digest (in a manifest or a store) must equal the digest of the certificate it
+names, or that certificate is rejected.
 """
 import hashlib
 import json
@@ -75,9 +75,10 @@ reaches Python as at most MAX_NAME_BYTES (names and digest) or MAX_FILE_BYTES (t
 def store_rows(path: str):
     """('row', 'STORE#curve/kind', document bytes or Unreadable, {"digest": recorded digest}) for every row
     of a store, in key order. The store is opened read-only; ``certificates`` must be a plain table
-    (``check_plain_table``: a view, a virtual table or a generated column could compute without end), SQLite's own work is cut off after MAX_STORE_STEPS virtual-machine steps
-    per row and its memory at MAX_STORE_MEMORY bytes, and a row with a document that is not text of at most
-    MAX_FILE_BYTES is one unreadable verdict; the run goes on."""
+    (``check_plain_table``: a view, a virtual table or a generated column could compute without end),
+    SQLite's own work is cut off after MAX_STORE_STEPS virtual-machine steps per row and its memory at
+    MAX_STORE_MEMORY bytes, and a row with a document that is not text of at most MAX_FILE_BYTES is one
+    unreadable verdict; the run goes on."""
     try:
         connection = sqlite3.connect(f"file:{path}?mode=ro", uri=True)
     except sqlite3.Error as error:
